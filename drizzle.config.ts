@@ -1,0 +1,9 @@
+import { defineConfig } from 'drizzle-kit';
+
+export default defineConfig({
+  dialect: 'postgresql',
+  schema: './src-api/db/schema/index.ts',
+  out: './drizzle',
+  casing: 'snake_case',
+  strict: true,
+});

@@ -1,0 +1,67 @@
+import { createBrowserRouter, redirect, useLoaderData, type LoaderFunctionArgs } from 'react-router-dom';
+import type { SessionUser } from '@shared/schemas/auth';
+import { queryClient } from '../lib/query-client';
+import { getMeQueryOptions, useMe } from '../features/auth/api/get-me';
+import { paths } from '../config/paths';
+import { NAV } from '../config/nav';
+import { Shell } from './shell';
+import { SignInPage } from './routes/sign-in';
+import { HomePage } from './routes/home';
+import { NotFoundPage } from './routes/not-found';
+import { ArrivesSoon } from './routes/arrives-soon';
+import { RouteErrorBoundary } from './routes/error-boundary';
+import { AdminPage } from './routes/admin';
+import { MailboxPage } from './routes/mailbox';
+
+/** Signed-in area: go to sign-in (and come back) when there is no session. */
+async function requireUser({ request }: LoaderFunctionArgs): Promise<SessionUser> {
+  const user = await queryClient.fetchQuery(getMeQueryOptions());
+  if (!user) {
+    const url = new URL(request.url);
+    throw redirect(`${paths.signIn}?next=${encodeURIComponent(url.pathname + url.search)}`);
+  }
+  return user;
+}
+
+async function signInLoader({ request }: LoaderFunctionArgs): Promise<null> {
+  const user = await queryClient.fetchQuery(getMeQueryOptions());
+  if (user) {
+    const next = new URL(request.url).searchParams.get('next');
+    throw redirect(next && next.startsWith('/') && !next.startsWith('//') ? next : paths.home);
+  }
+  return null;
+}
+
+function ShellRoute() {
+  const loaded = useLoaderData() as SessionUser;
+  const { data } = useMe();
+  return <Shell user={data ?? loaded} />;
+}
+
+function Home() {
+  const user = useLoaderData() as SessionUser;
+  return <HomePage user={user} />;
+}
+
+// Pages that later work fills in; each shows an honest empty state until then.
+const placeholders = NAV.filter((n) => n.to !== paths.admin).map((n) => ({ path: n.to, element: <ArrivesSoon to={n.to} /> }));
+
+export const router = createBrowserRouter([
+  { path: paths.signIn, element: <SignInPage />, loader: signInLoader, errorElement: <RouteErrorBoundary /> },
+  {
+    id: 'app',
+    path: '/',
+    element: <ShellRoute />,
+    loader: requireUser,
+    errorElement: <RouteErrorBoundary />,
+    children: [
+      { errorElement: <RouteErrorBoundary />, children: [
+        { index: true, element: <Home />, loader: requireUser },
+        { path: paths.admin, element: <AdminPage /> },
+        { path: paths.mailbox, element: <MailboxPage /> },
+        ...placeholders,
+        { path: '*', element: <NotFoundPage /> },
+      ] },
+    ],
+  },
+]);

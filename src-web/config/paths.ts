@@ -1,0 +1,20 @@
+/** Every route path in one place. */
+export const paths = {
+  home: '/',
+  signIn: '/sign-in',
+  dock: '/dock',
+  lots: '/lots',
+  lot: (id: string) => `/lots/${id}`,
+  drift: '/drift-watch',
+  ncrs: '/nonconformances',
+  scars: '/corrective-actions',
+  supplierDesk: '/supplier-desk',
+  scorecards: '/scorecards',
+  plans: '/plans-parts',
+  suppliers: '/suppliers',
+  gauges: '/gauges',
+  calculators: '/calculators',
+  ledger: '/history-ledger',
+  admin: '/admin',
+  mailbox: '/dev/mailbox',
+} as const;
