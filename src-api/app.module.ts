@@ -11,7 +11,11 @@ import { HealthController } from './health/health.controller';
 import { RolesGuard } from './common/roles.guard';
 import { ErrorFilter } from './common/error.filter';
 import { DevModule } from './dev/dev.module';
-import { SuppliersController } from './suppliers/suppliers.controller';
+import { SuppliersModule } from './suppliers/suppliers.module';
+import { PartsModule } from './parts/parts.module';
+import { GaugesModule } from './gauges/gauges.module';
+import { PlansModule } from './plans/plans.module';
+import { StorageModule } from './storage/storage.module';
 
 @Module({})
 export class AppModule {
@@ -38,9 +42,14 @@ export class AppModule {
         DbModule,
         AuthModule,
         UsersModule,
+        StorageModule,
+        SuppliersModule,
+        PartsModule,
+        GaugesModule,
+        PlansModule,
         ...(cfg.MAIL_CAPTURE_URL && cfg.NODE_ENV !== 'production' ? [DevModule] : []),
       ],
-      controllers: [HealthController, SuppliersController],
+      controllers: [HealthController],
       providers: [
         { provide: CONFIG, useValue: cfg },
         { provide: APP_GUARD, useClass: RolesGuard },

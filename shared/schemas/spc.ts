@@ -79,7 +79,9 @@ export const spcAnalyzeInputSchema = z
         } else if (v.defectives.length < minCount) {
           issue('defectives', `a p chart needs at least ${minCount} samples (got ${v.defectives.length})`);
         } else {
-          const over = v.defectives.findIndex((d, i) => d > (v.sizes as number[])[i]);
+          // Only where the size itself is valid; a bad size already has its own message.
+          const sizes = v.sizes;
+          const over = v.defectives.findIndex((d, i) => Number.isInteger(sizes[i]) && sizes[i] >= 1 && d > sizes[i]);
           if (over >= 0) issue('defectives', `sample ${over + 1}: ${v.defectives[over]} defectives is more than the sample size of ${v.sizes[over]}`);
         }
       }

@@ -1,39 +1,60 @@
-import { Controller, Get, Inject, Query } from '@nestjs/common';
+import { Body, Controller, Get, Param, Patch, Post, Query } from '@nestjs/common';
 import { ApiOperation, ApiTags } from '@nestjs/swagger';
-import { asc, count, eq } from 'drizzle-orm';
-import { z } from 'zod';
-import { DB, type Db } from '../db/client';
-import { supplier } from '../db/schema';
 import { Roles, SIGNED_IN } from '../common/roles.decorator';
 import { CurrentUser } from '../common/current-user.decorator';
 import { ZodPipe } from '../common/zod.pipe';
-import { ApiQueryOf, ApiResult } from '../common/openapi';
-import { pageOf, pageQuerySchema, type PageQuery } from '../../shared/schemas/common';
+import { ApiBody, ApiQueryOf, ApiResult } from '../common/openapi';
+import { SuppliersService } from './suppliers.service';
+import { idParamSchema, pageOf } from '../../shared/schemas/common';
 import type { SessionUser } from '../../shared/schemas/auth';
+import {
+  createSupplierSchema,
+  supplierListQuerySchema,
+  supplierSchema,
+  updateSupplierSchema,
+  type CreateSupplierInput,
+  type Supplier,
+  type UpdateSupplierInput,
+} from '../../shared/schemas/master-data';
+import type { z } from 'zod';
 
-const supplierSummarySchema = z.object({ id: z.string(), code: z.string(), name: z.string() });
-
-/** Minimal supplier list (the master-data work extends suppliers). Supplier users see only their own. */
 @ApiTags('suppliers')
 @Controller('suppliers')
 export class SuppliersController {
-  constructor(@Inject(DB) private readonly db: Db) {}
+  constructor(private readonly suppliers: SuppliersService) {}
 
   @Get()
   @Roles(...SIGNED_IN)
-  @ApiOperation({ summary: 'Suppliers (a supplier user sees only its own)' })
-  @ApiQueryOf(pageQuerySchema)
-  @ApiResult(pageOf(supplierSummarySchema))
-  async list(@CurrentUser() user: SessionUser, @Query(new ZodPipe(pageQuerySchema)) q: PageQuery) {
-    const where = user.role === 'supplier' ? eq(supplier.id, user.supplierId ?? '00000000-0000-0000-0000-000000000000') : undefined;
-    const items = await this.db
-      .select({ id: supplier.id, code: supplier.code, name: supplier.name })
-      .from(supplier)
-      .where(where)
-      .orderBy(asc(supplier.code))
-      .limit(q.pageSize)
-      .offset((q.page - 1) * q.pageSize);
-    const [{ n }] = await this.db.select({ n: count() }).from(supplier).where(where);
-    return { items, total: n };
+  @ApiOperation({ summary: 'Suppliers, paged (a supplier user sees only its own)' })
+  @ApiQueryOf(supplierListQuerySchema)
+  @ApiResult(pageOf(supplierSchema))
+  list(@CurrentUser() user: SessionUser, @Query(new ZodPipe(supplierListQuerySchema)) q: z.infer<typeof supplierListQuerySchema>): Promise<{ items: Supplier[]; total: number }> {
+    return this.suppliers.list(user, q);
+  }
+
+  @Get(':id')
+  @Roles(...SIGNED_IN)
+  @ApiOperation({ summary: 'One supplier (404 for another supplier’s user)' })
+  @ApiResult(supplierSchema)
+  get(@CurrentUser() user: SessionUser, @Param(new ZodPipe(idParamSchema)) p: { id: string }): Promise<Supplier> {
+    return this.suppliers.get(user, p.id);
+  }
+
+  @Post()
+  @Roles('engineer')
+  @ApiOperation({ summary: 'Add a supplier' })
+  @ApiBody(createSupplierSchema)
+  @ApiResult(supplierSchema, 201)
+  create(@CurrentUser() user: SessionUser, @Body(new ZodPipe(createSupplierSchema)) body: CreateSupplierInput): Promise<Supplier> {
+    return this.suppliers.create(user, body);
+  }
+
+  @Patch(':id')
+  @Roles('engineer')
+  @ApiOperation({ summary: 'Change a supplier (send the version you saw; a status change needs a reason)' })
+  @ApiBody(updateSupplierSchema)
+  @ApiResult(supplierSchema)
+  update(@CurrentUser() user: SessionUser, @Param(new ZodPipe(idParamSchema)) p: { id: string }, @Body(new ZodPipe(updateSupplierSchema)) body: UpdateSupplierInput): Promise<Supplier> {
+    return this.suppliers.update(user, p.id, body);
   }
 }

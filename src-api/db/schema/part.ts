@@ -1,0 +1,35 @@
+import { doublePrecision, integer, pgTable, text, timestamp, unique, uuid, bigint } from 'drizzle-orm/pg-core';
+
+/** A part revision: one core design. Dimensions in mm, mass in kg, area in cm², density in g/cm³. */
+export const part = pgTable(
+  'part',
+  {
+    id: uuid().primaryKey().defaultRandom(),
+    partNumber: text().notNull(),
+    revision: text().notNull(),
+    description: text().notNull(),
+    construction: text({ enum: ['welded', 'interlocked', 'bonded', 'cleated', 'riveted', 'segmented'] }).notNull(),
+    steelGrade: text().notNull(),
+    lossWPerKg: doublePrecision().notNull(),
+    gradeThicknessMm: doublePrecision().notNull(),
+    laminationThicknessMm: doublePrecision().notNull(),
+    laminationAreaCm2: doublePrecision().notNull(),
+    densityGcm3: doublePrecision().notNull(),
+    densitySource: text().notNull(),
+    nominalBoreMm: doublePrecision().notNull(),
+    nominalOdMm: doublePrecision().notNull(),
+    nominalStackLengthMm: doublePrecision().notNull(),
+    slotCount: integer().notNull(),
+    nominalMassKg: doublePrecision().notNull(),
+    designStackingFactor: doublePrecision(),
+    designToothT: doublePrecision(),
+    designYokeT: doublePrecision(),
+    drawingKey: text(),
+    drawingName: text(),
+    drawingSize: bigint({ mode: 'number' }),
+    version: integer().notNull().default(1),
+    createdAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+    updatedAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
+  },
+  (t) => [unique('part_number_revision_uq').on(t.partNumber, t.revision)],
+);
