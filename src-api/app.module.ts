@@ -16,6 +16,7 @@ import { PartsModule } from './parts/parts.module';
 import { GaugesModule } from './gauges/gauges.module';
 import { PlansModule } from './plans/plans.module';
 import { StorageModule } from './storage/storage.module';
+import { LotsModule } from './lots/lots.module';
 
 @Module({})
 export class AppModule {
@@ -47,6 +48,7 @@ export class AppModule {
         PartsModule,
         GaugesModule,
         PlansModule,
+        LotsModule,
         ...(cfg.MAIL_CAPTURE_URL && cfg.NODE_ENV !== 'production' ? [DevModule] : []),
       ],
       controllers: [HealthController],

@@ -6,7 +6,6 @@ import type { SessionUser } from '../../shared/schemas/auth';
 
 /**
  * Which parts a supplier user may read: those its company has shipped (has lots of).
- * Until lots exist in the database this is the empty set.
  */
 @Injectable()
 export class PartsScope {
@@ -14,8 +13,6 @@ export class PartsScope {
 
   async partIdsShippedBy(supplierId: string | null): Promise<string[]> {
     if (!supplierId) return [];
-    const exists = await this.pool.query<{ t: string | null }>(`select to_regclass('public.lot')::text as t`);
-    if (!exists.rows[0]?.t) return [];
     const r = await this.pool.query<{ part_id: string }>('select distinct part_id from lot where supplier_id = $1', [supplierId]);
     return r.rows.map((x: { part_id: string }) => x.part_id);
   }
