@@ -20,6 +20,7 @@ export const MIME: Record<Exclude<Sniffed, null>, string> = {
 /** A file name safe to echo back in Content-Disposition: no path, no control or quote characters. */
 export function safeFileName(name: string | undefined, fallback: string): string {
   const base = (name ?? '').split(/[\\/]/).pop() ?? '';
+  // eslint-disable-next-line no-control-regex -- control characters are exactly what we strip
   const cleaned = base.replace(/[\u0000-\u001f\u007f"<>|:*?]/g, '').trim().slice(0, 120);
   return cleaned || fallback;
 }

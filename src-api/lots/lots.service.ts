@@ -11,7 +11,7 @@ import { initialSwitchingState, nextSwitchingState, samplingPlan, zeroAcceptance
 import { evaluateSample, expectedReadings, proposeDecision, type EvalCharacteristic, type EvalPart, type RawReading } from '../../shared/compute/evaluate';
 import { ComputeError } from '../../shared/compute/errors';
 import type { SessionUser } from '../../shared/schemas/auth';
-import type { CreateLotInput, Lot, LotSummary, ReadingInput, lotListQuerySchema } from '../../shared/schemas/receiving';
+import type { Lot, LotSummary, ReadingInput, lotListQuerySchema } from '../../shared/schemas/receiving';
 import { forSupplier, toLot, toSummary } from './lot-views';
 import type { z } from 'zod';
 
