@@ -15,7 +15,8 @@ case $profile in
   dev)   : "${PGPORT:=55432}" "${PORT:=3000}" "${SMTP_PORT:=2525}" "${S3_PORT:=4569}" ;;
   test)  : "${PGPORT:=55433}" "${PORT:=3100}" "${SMTP_PORT:=2625}" "${S3_PORT:=4669}" ;;
   bench) : "${PGPORT:=55434}" "${PORT:=3200}" "${SMTP_PORT:=2725}" "${S3_PORT:=4769}" ;;
-  *) echo "unknown profile $profile" >&2; exit 2 ;;
+  *) # Any other name is a private stack: all four ports must be given.
+     : "${PGPORT:?set PGPORT for profile $profile}" "${PORT:?set PORT}" "${SMTP_PORT:?set SMTP_PORT}" "${S3_PORT:?set S3_PORT}" ;;
 esac
 export PGPORT PORT SMTP_PORT S3_PORT
 export SMTP_HTTP_PORT=$((SMTP_PORT + 1))
@@ -63,6 +64,15 @@ up() {
   wait_port "$S3_PORT" s3
 }
 
+# A private stack's API in the background (for helpers and scripts): scripts/stack.sh api <profile>
+api_bg() {
+  stop_bg api
+  node dist/server/src-api/seed/seed.js >/dev/null
+  start_bg api env NODE_ENV=development LOG_LEVEL=${LOG_LEVEL:-warn} node dist/server/src-api/main.js
+  wait_port "$PORT" api
+  echo "API + web on http://127.0.0.1:$PORT (log: $run/api.log)"
+}
+
 down() {
   stop_bg api
   stop_bg smtp
@@ -72,6 +82,7 @@ down() {
 
 case $cmd in
   up) up ;;
+  api) up; api_bg ;;
   down) down; echo "Stopped the $profile stack." ;;
   serve)
     trap 'echo; echo "Stopping…"; down; exit 0' INT TERM

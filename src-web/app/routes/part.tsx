@@ -1,5 +1,5 @@
 import { Button, Caption1, MessageBar, MessageBarBody, Subtitle2, Table, TableBody, TableCell, TableHeader, TableRow, Tooltip, makeStyles, tokens } from '@fluentui/react-components';
-import { useState } from 'react';
+import { useState, type ReactNode } from 'react';
 import { Link, useNavigate, useParams } from 'react-router-dom';
 import type { Part, PlanSummary } from '@shared/schemas/master-data';
 import { Page } from '../../components/page';
@@ -31,7 +31,7 @@ const useStyles = makeStyles({
   link: { color: tokens.colorBrandForeground1, fontWeight: 600 },
 });
 
-function Datum({ label, children, sub }: { label: string; children: React.ReactNode; sub?: string }) {
+function Datum({ label, children, sub }: { label: string; children: ReactNode; sub?: string }) {
   const s = useStyles();
   return (
     <div>
