@@ -1,6 +1,7 @@
 import { Injectable } from '@nestjs/common';
 import { auditEvent } from '../db/schema';
 import type { DbOrTx } from '../db/client';
+import { now } from '../common/clock';
 
 export interface AuditEntry {
   actorId: string | null;
@@ -19,6 +20,7 @@ export class AuditRepository {
   async record(tx: DbOrTx, entry: AuditEntry): Promise<void> {
     await tx.insert(auditEvent).values({
       actorId: entry.actorId,
+      at: now(),
       actorEmail: entry.actorEmail ?? null,
       action: entry.action,
       entity: entry.entity,

@@ -7,6 +7,7 @@ import { conflict, notFound, stale } from '../common/errors';
 import { likeEscape, offsetOf, orderFrom } from '../common/paging';
 import { ValidationFailed } from '../common/zod.pipe';
 import { todayIso } from '../gauges/gauges.service';
+import { now as clockNow } from '../common/clock';
 import { initialSwitchingState, nextSwitchingState, samplingPlan, zeroAcceptancePlan, type SwitchingState } from '../../shared/compute/sampling';
 import { evaluateSample, expectedReadings, proposeDecision, type EvalCharacteristic, type EvalPart, type RawReading } from '../../shared/compute/evaluate';
 import { ComputeError } from '../../shared/compute/errors';
@@ -103,7 +104,7 @@ export class LotsService {
           supplierLotNumber: input.supplierLotNumber,
           poNumber: input.poNumber ?? null,
           quantity: input.quantity,
-          receivedAt: input.receivedAt ? new Date(input.receivedAt) : new Date(),
+          receivedAt: input.receivedAt ? new Date(input.receivedAt) : clockNow(),
           heatNumbers: input.heatNumbers ?? [],
           packagingCondition: input.packagingCondition,
           packagingNote: input.packagingNote ?? null,
@@ -197,7 +198,7 @@ export class LotsService {
       const gaugeIds = [...new Set(input.map((r) => r.gaugeId).filter((g): g is string => !!g))];
       const gauges = gaugeIds.length ? await tx.select().from(gauge).where(inArray(gauge.id, gaugeIds)) : [];
       const gaugeById = new Map(gauges.map((g) => [g.id, g]));
-      const today = todayIso();
+      const today = todayIso(clockNow());
       const fields: Record<string, string> = {};
       input.forEach((r, i) => {
         const at = `readings.${i}`;
@@ -232,7 +233,7 @@ export class LotsService {
 
       // Upsert what was entered, in batches (unnest keeps one round trip per batch).
       const touched = new Set<string>();
-      const now = new Date();
+      const now = clockNow();
       const gaugeDue = (gid?: string | null) => (gid ? (gaugeById.get(gid)?.calibrationDueOn ?? null) : null);
       for (let i = 0; i < input.length; i += 2000) {
         const batch = input.slice(i, i + 2000);
@@ -326,7 +327,7 @@ export class LotsService {
         if (prop.proposal === null) throw new BadRequestException({ error: 'validation', message: `The lot cannot be accepted yet: ${prop.reason}.`, fields: { decision: prop.reason } });
         if (prop.proposal === 'reject') throw conflict(`The results require rejection (${prop.reason}). A nonconforming lot is dispositioned through review, not accepted here.`);
       }
-      const now = new Date();
+      const now = clockNow();
       const status = body.decision === 'accept' ? 'released' : 'on-hold';
       await tx
         .update(lot)
@@ -361,8 +362,8 @@ export class LotsService {
       level: sampling.level as never,
       lotSize: sampling.lotSize,
     });
-    await tx.update(switchingState).set({ state: step.state, updatedAt: new Date() }).where(and(eq(switchingState.supplierId, l.supplierId), eq(switchingState.partId, l.partId)));
-    await tx.insert(switchingEvent).values({ supplierId: l.supplierId, partId: l.partId, lotId: l.id, event: step.event ?? null, reason: step.reason, before, after: step.state, actorId: actor.id });
+    await tx.update(switchingState).set({ state: step.state, updatedAt: clockNow() }).where(and(eq(switchingState.supplierId, l.supplierId), eq(switchingState.partId, l.partId)));
+    await tx.insert(switchingEvent).values({ supplierId: l.supplierId, partId: l.partId, lotId: l.id, event: step.event ?? null, reason: step.reason, before, after: step.state, actorId: actor.id, at: clockNow() });
     if (step.event) {
       await this.audit.record(tx, { actorId: actor.id, actorEmail: actor.email, action: `switching.${step.event}`, entity: 'switching_state', entityId: `${l.supplierId}:${l.partId}`, before, after: step.state, reason: step.reason });
     }

@@ -9,6 +9,11 @@ import { appUser, supplier } from '../db/schema';
 import { hashPassword } from '../auth/passwords';
 import { loadConfig } from '../config';
 import { DEMO_PASSWORD, DEMO_SUPPLIERS, DEMO_USERS } from './demo-users';
+import { NestFactory } from '@nestjs/core';
+import { AppModule } from '../app.module';
+import { UsersRepository } from '../users/users.repository';
+import { toSessionUser } from '../auth/auth.service';
+import { seedDemoScenario } from './demo-scenario';
 
 export async function seedDemo(db: Db): Promise<{ created: number }> {
   let created = 0;
@@ -34,14 +39,33 @@ export async function seedDemo(db: Db): Promise<{ created: number }> {
   return { created };
 }
 
-if (require.main === module) {
-  const cfg = loadConfig();
+/** Users and suppliers, then (unless told not to) the six-month demo scenario through the real services. */
+async function main(): Promise<void> {
+  const cfg = loadConfig({ ...process.env, LOG_LEVEL: 'warn', WORKERS: 'false' });
   const pool = createPool(cfg.DATABASE_URL, 2);
-  seedDemo(createDb(pool))
-    .then(({ created }) => console.log(created ? `Demo data seeded (${created} rows)` : 'Demo data already present'))
-    .catch((err: unknown) => {
-      console.error('Seeding failed:', err);
-      process.exitCode = 1;
-    })
-    .finally(() => void pool.end());
+  try {
+    const { created } = await seedDemo(createDb(pool));
+    console.log(created ? `Demo users and suppliers seeded (${created} rows)` : 'Demo users and suppliers already present');
+  } finally {
+    await pool.end();
+  }
+  if (process.argv.includes('--users-only')) return;
+  const started = Date.now();
+  const app = await NestFactory.createApplicationContext(AppModule.forRoot(cfg), { logger: ['error', 'warn'] });
+  try {
+    const users = app.get(UsersRepository);
+    const inspector = await users.byEmail('inspector@harrowgate.test');
+    const engineer = await users.byEmail('engineer@harrowgate.test');
+    const r = await seedDemoScenario(app, { inspector: toSessionUser(inspector!), engineer: toSessionUser(engineer!) });
+    console.log(r ? `Demo scenario seeded: ${r.lots} lots in ${((Date.now() - started) / 1000).toFixed(1)} s` : 'Demo scenario already present');
+  } finally {
+    await app.close();
+  }
+}
+
+if (require.main === module) {
+  main().catch((err: unknown) => {
+    console.error('Seeding failed:', err);
+    process.exitCode = 1;
+  });
 }

@@ -4,6 +4,9 @@ import { randomUUID } from 'node:crypto';
 import type { Readable } from 'node:stream';
 import { CONFIG, type AppConfig } from '../config';
 
+// The SDK warns on every start that future releases will need Node 22; we pin a version that runs on 20.
+process.env.AWS_SDK_JS_NODE_VERSION_SUPPORT_WARNING_DISABLED ??= 'true';
+
 /** Object storage through the real S3 SDK (the local fake in demo and tests). Keys are random. */
 @Injectable()
 export class StorageService {

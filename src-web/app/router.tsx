@@ -12,6 +12,11 @@ import { ArrivesSoon } from './routes/arrives-soon';
 import { RouteErrorBoundary } from './routes/error-boundary';
 import { AdminPage } from './routes/admin';
 import { MailboxPage } from './routes/mailbox';
+import { PlansPartsPage } from './routes/plans-parts';
+import { PartPage } from './routes/part';
+import { PlanPage } from './routes/plan';
+import { SuppliersPage } from './routes/suppliers';
+import { GaugesPage } from './routes/gauges';
 
 /** Signed-in area: go to sign-in (and come back) when there is no session. */
 async function requireUser({ request }: LoaderFunctionArgs): Promise<SessionUser> {
@@ -44,7 +49,8 @@ function Home() {
 }
 
 // Pages that later work fills in; each shows an honest empty state until then.
-const placeholders = NAV.filter((n) => n.to !== paths.admin).map((n) => ({ path: n.to, element: <ArrivesSoon to={n.to} /> }));
+const built = new Set<string>([paths.admin, paths.plans, paths.suppliers, paths.gauges]);
+const placeholders = NAV.filter((n) => !built.has(n.to)).map((n) => ({ path: n.to, element: <ArrivesSoon to={n.to} /> }));
 
 export const router = createBrowserRouter([
   { path: paths.signIn, element: <SignInPage />, loader: signInLoader, errorElement: <RouteErrorBoundary /> },
@@ -59,6 +65,12 @@ export const router = createBrowserRouter([
         { index: true, element: <Home />, loader: requireUser },
         { path: paths.admin, element: <AdminPage /> },
         { path: paths.mailbox, element: <MailboxPage /> },
+        { path: paths.plans, element: <PlansPartsPage /> },
+        { path: `${paths.plans}/parts/:id`, element: <PartPage /> },
+        { path: `${paths.plans}/plans/:id/:tab?`, element: <PlanPage /> },
+        // One route with an optional id, so opening a supplier's panel keeps the list mounted.
+        { path: `${paths.suppliers}/:id?`, element: <SuppliersPage /> },
+        { path: paths.gauges, element: <GaugesPage /> },
         ...placeholders,
         { path: '*', element: <NotFoundPage /> },
       ] },

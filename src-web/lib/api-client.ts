@@ -31,6 +31,14 @@ async function fetchCsrf(): Promise<string> {
   return body.token;
 }
 
+/**
+ * The CSRF header for a write sent outside `api()` (an XMLHttpRequest upload that reports
+ * progress). `refresh` fetches a new token, after the server refused the old one.
+ */
+export async function csrfHeader(refresh = false): Promise<Record<string, string>> {
+  return { 'x-csrf-token': !refresh && csrfToken ? csrfToken : await fetchCsrf() };
+}
+
 export interface RequestOptions {
   method?: 'GET' | 'POST' | 'PUT' | 'PATCH' | 'DELETE';
   body?: unknown;

@@ -86,8 +86,9 @@ export function PartPage() {
   const activePlan = list.find((x) => x.status === 'active');
   const draft = list.find((x) => x.status === 'draft');
   const doRevise = async (planId: string) => {
-    const next = await revise.mutateAsync({ id: planId });
-    navigate(paths.plan(next.id));
+    // The refusal (if any) shows from revise.error; nothing else to do here.
+    const next = await revise.mutateAsync({ id: planId }).catch(() => null);
+    if (next) await navigate(paths.plan(next.id));
   };
 
   return (

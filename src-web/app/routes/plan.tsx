@@ -33,11 +33,8 @@ const useStyles = makeStyles({
   charsHead: { display: 'flex', justifyContent: 'space-between', alignItems: 'baseline', gap: '12px', marginBottom: '8px', flexWrap: 'wrap' },
   errors: { margin: '6px 0 0', paddingLeft: '18px' },
   errLink: { border: 'none', background: 'none', padding: '2px 0', font: 'inherit', color: tokens.colorPaletteRedForeground1, textDecoration: 'underline', cursor: 'pointer', textAlign: 'left' },
-  dirty: { color: copperText(), fontWeight: 600 },
+  dirty: { color: tokens.colorPaletteDarkOrangeForeground1, fontWeight: 600 },
 });
-function copperText() {
-  return tokens.colorPaletteDarkOrangeForeground1;
-}
 
 const COL_LABEL = Object.fromEntries(COLUMNS.map((c) => [c.field, c.label]));
 
@@ -119,7 +116,7 @@ function PlanEditor({ plan, tab }: { plan: Plan; tab: 'characteristics' | 'chang
     setMessage(null);
     try {
       const next = await revise.mutateAsync({ id: plan.id });
-      navigate(paths.plan(next.id));
+      await navigate(paths.plan(next.id));
     } catch (err) {
       setMessage({ text: err instanceof Error ? err.message : 'Something went wrong' });
     }

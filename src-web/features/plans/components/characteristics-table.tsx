@@ -1,4 +1,4 @@
-import { Button, Menu, MenuDivider, MenuItem, MenuList, MenuPopover, MenuTrigger, makeStyles, mergeClasses, tokens } from '@fluentui/react-components';
+import { Button, Menu, MenuDivider, MenuItem, MenuList, MenuPopover, MenuTrigger, makeStyles, mergeClasses, shorthands, tokens } from '@fluentui/react-components';
 import { useEffect, useRef, type KeyboardEvent } from 'react';
 import { CHART_KINDS, CHARACTERISTIC_KINDS, GAUGE_KIND_LABELS, GAUGE_KINDS, LAYOUT_LABELS, LAYOUTS, SEVERITY_CLASSES, UNITS } from '@shared/schemas/master-data';
 import { CHART_LABELS, KIND_LABELS, LAYOUT_SHORT, SEVERITY_LABELS } from './plan-labels';
@@ -21,12 +21,12 @@ const useStyles = makeStyles({
   cell: {
     boxSizing: 'border-box', width: '100%', height: '34px', padding: '0 6px', font: 'inherit', color: tokens.colorNeutralForeground1,
     backgroundColor: tokens.colorNeutralBackground1, border: `1px solid ${tokens.colorNeutralStroke1}`, borderRadius: '4px',
-    ':focus': { outline: `2px solid ${tokens.colorBrandStroke1}`, outlineOffset: '-1px', borderColor: tokens.colorBrandStroke1 },
-    ':disabled': { backgroundColor: tokens.colorNeutralBackgroundDisabled, color: tokens.colorNeutralForegroundDisabled, borderColor: tokens.colorNeutralStrokeDisabled },
+    ':focus': { outline: `2px solid ${tokens.colorBrandStroke1}`, outlineOffset: '-1px', ...shorthands.borderColor(tokens.colorBrandStroke1) },
+    ':disabled': { backgroundColor: tokens.colorNeutralBackgroundDisabled, color: tokens.colorNeutralForegroundDisabled, ...shorthands.borderColor(tokens.colorNeutralStrokeDisabled) },
   },
   numCell: { textAlign: 'right' },
   codeCell: { fontFamily: tokens.fontFamilyMonospace, textTransform: 'uppercase', fontWeight: 600 },
-  invalid: { borderColor: tokens.colorPaletteRedBorder2, backgroundColor: tokens.colorPaletteRedBackground1, boxShadow: `inset 0 0 0 1px ${tokens.colorPaletteRedBorder2}` },
+  invalid: { ...shorthands.borderColor(tokens.colorPaletteRedBorder2), backgroundColor: tokens.colorPaletteRedBackground1, boxShadow: `inset 0 0 0 1px ${tokens.colorPaletteRedBorder2}` },
   check: { width: '20px', height: '20px', accentColor: tokens.colorBrandBackground, margin: '0 auto', display: 'block' },
   rowBtn: { minWidth: '40px', minHeight: '34px', padding: '0 8px' },
   marked: { fontWeight: 700 },

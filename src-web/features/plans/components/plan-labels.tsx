@@ -1,5 +1,5 @@
 import type { Plan, PlanStatus, PlanSummary } from '@shared/schemas/master-data';
-import { CHART_KINDS, CHARACTERISTIC_KINDS, LAYOUTS, SEVERITY_CLASSES } from '@shared/schemas/master-data';
+import { type CHART_KINDS, type CHARACTERISTIC_KINDS, type LAYOUTS, type SEVERITY_CLASSES } from '@shared/schemas/master-data';
 import { StatusPill, type Tone } from '../../../components/status-pill';
 
 export const PLAN_STATUS_LABELS: Record<PlanStatus, string> = { draft: 'Draft', active: 'Active', superseded: 'Superseded' };
