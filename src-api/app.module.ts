@@ -17,6 +17,7 @@ import { GaugesModule } from './gauges/gauges.module';
 import { PlansModule } from './plans/plans.module';
 import { StorageModule } from './storage/storage.module';
 import { LotsModule } from './lots/lots.module';
+import { AuditModule } from './audit/audit.module';
 
 @Module({})
 export class AppModule {
@@ -49,6 +50,7 @@ export class AppModule {
         GaugesModule,
         PlansModule,
         LotsModule,
+        AuditModule,
         ...(cfg.MAIL_CAPTURE_URL && cfg.NODE_ENV !== 'production' ? [DevModule] : []),
       ],
       controllers: [HealthController],

@@ -33,7 +33,7 @@ export function StatusPill({ tone, children, title }: { tone: Tone; children: Re
   return (
     <span className={s.pill} title={title} style={{ color: colour, borderColor: `${colour}66`, backgroundColor: `${colour}${mode === 'dark' ? '22' : '14'}` }}>
       <span className={s.glyph} aria-hidden>{GLYPH[tone]}</span>
-      {children}
+      <span>{children}</span>
     </span>
   );
 }

@@ -92,7 +92,7 @@ describe('plans & parts', () => {
     await odUsl.fill(String(usl2));
     expect(await odLsl.getAttribute('aria-invalid')).toBeNull();
     await page.getByRole('button', { name: 'Save', exact: true }).click();
-    await page.getByText('Draft rev 1 saved').waitFor();
+    await page.locator('.fui-ToastTitle', { hasText: 'Draft rev 1 saved' }).waitFor();
     expect(await page.getByRole('button', { name: 'Save', exact: true }).isDisabled()).toBe(true);
     await page.reload();
     expect(Number(await page.getByRole('table', { name: 'Characteristics' }).getByLabel('Upper limit, OD').inputValue())).toBe(usl2);
@@ -114,7 +114,7 @@ describe('plans & parts', () => {
     const usl3 = Number((usl2 + 0.03).toFixed(3));
     await page.getByRole('table', { name: 'Characteristics' }).getByLabel('Upper limit, OD').fill(String(usl3));
     await page.getByRole('button', { name: 'Save', exact: true }).click();
-    await page.getByText('Draft rev 2 saved').waitFor();
+    await page.locator('.fui-ToastTitle', { hasText: 'Draft rev 2 saved' }).waitFor();
     await page.getByRole('tab', { name: 'Changes' }).click();
     await page.waitForURL(/\/changes$/);
     const changes = page.getByRole('table', { name: 'Changes between revisions' });
@@ -166,13 +166,13 @@ describe('suppliers', () => {
     await page.getByRole('button', { name: 'New supplier' }).click();
     const form = page.getByRole('form', { name: 'New supplier' });
     await form.getByLabel('Code').fill(code);
-    await form.getByLabel('Name', { exact: true }).fill('Browser Test Stampings');
-    await form.getByLabel('Contact e-mail 1').fill('not-an-address');
+    await form.getByRole('textbox', { name: /^Name/ }).fill('Browser Test Stampings');
+    await form.getByLabel('Contact e-mail 1', { exact: true }).fill('not-an-address');
     await page.getByRole('button', { name: 'Add supplier' }).click();
     await form.getByText('Enter a valid e-mail address').waitFor();
-    await form.getByLabel('Contact e-mail 1').fill('quality@browser-test.test');
+    await form.getByLabel('Contact e-mail 1', { exact: true }).fill('quality@browser-test.test');
     await form.getByRole('button', { name: 'Add an e-mail' }).click();
-    await form.getByLabel('Contact e-mail 2').fill('dispatch@browser-test.test');
+    await form.getByLabel('Contact e-mail 2', { exact: true }).fill('dispatch@browser-test.test');
     await screenshot(page, 'supplier-form');
     await page.getByRole('button', { name: 'Add supplier' }).click();
     await form.waitFor({ state: 'detached' });
@@ -230,11 +230,13 @@ describe('gauges', () => {
     await screenshot(page, 'gauges');
 
     await page.getByRole('button', { name: 'Overdue', exact: true }).click();
+    await rowOf(gauges[1].tag).waitFor({ state: 'detached' });
     await rowOf(gauges[0].tag).waitFor();
-    expect(await rowOf(gauges[1].tag).count()).toBe(0);
+    expect(await rowOf(gauges[2].tag).count()).toBe(0);
     await page.getByRole('button', { name: 'Due within 30 days' }).click();
+    await rowOf(gauges[0].tag).waitFor({ state: 'detached' });
     await rowOf(gauges[1].tag).waitFor();
-    expect(await rowOf(gauges[0].tag).count()).toBe(0);
+    expect(await rowOf(gauges[2].tag).count()).toBe(0);
 
     // Recording a calibration moves the overdue gauge's due date on.
     await page.getByRole('button', { name: 'All', exact: true }).click();

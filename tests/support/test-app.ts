@@ -8,6 +8,51 @@ import { seedDemo } from '../../src-api/seed/seed';
 import { cloneDatabase } from './test-db';
 import { MAIL_CAPTURE_URL, S3_ENDPOINT, SMTP_PORT } from './env';
 import type { Pool } from 'pg';
+import { spawn } from 'node:child_process';
+import net from 'node:net';
+import path from 'node:path';
+
+async function freePort(): Promise<number> {
+  return new Promise((resolve, reject) => {
+    const s = net.createServer();
+    s.listen(0, '127.0.0.1', () => {
+      const { port } = s.address() as AddressInfo;
+      s.close(() => resolve(port));
+    });
+    s.on('error', reject);
+  });
+}
+
+/**
+ * A second API as its own OS process (the built server in dist/), over the same database.
+ * Passport keeps its strategies in one module-level instance, so two apps in one process would
+ * share them: a separate process is also the honest model of two servers behind a balancer.
+ */
+export async function spawnApi(databaseUrl: string): Promise<{ url: string; close: () => Promise<void> }> {
+  const port = await freePort();
+  const main = path.resolve(__dirname, '../../dist/server/src-api/main.js');
+  const child = spawn(process.execPath, [main], {
+    env: { ...process.env, DATABASE_URL: databaseUrl, PORT: String(port), LOG_LEVEL: 'error', NODE_ENV: 'test', WORKERS: 'false', WEB_DIST: '/nonexistent' },
+    stdio: ['ignore', 'ignore', 'inherit'],
+  });
+  const url = `http://127.0.0.1:${port}`;
+  for (let i = 0; i < 100; i++) {
+    try {
+      if ((await fetch(`${url}/api/health`)).ok) break;
+    } catch {
+      await new Promise((r) => setTimeout(r, 100));
+    }
+  }
+  return {
+    url,
+    close: () =>
+      new Promise<void>((resolve) => {
+        child.once('exit', () => resolve());
+        child.kill('SIGTERM');
+        setTimeout(() => child.kill('SIGKILL'), 3000).unref();
+      }),
+  };
+}
 
 export interface TestApp {
   url: string;
@@ -27,7 +72,7 @@ export function testConfig(databaseUrl: string, overrides: Partial<AppConfig> = 
     {
       NODE_ENV: 'test',
       DATABASE_URL: databaseUrl,
-      LOG_LEVEL: 'silent',
+      LOG_LEVEL: process.env.TEST_LOG_LEVEL ?? 'silent',
       PORT: '0',
       MAIL_CAPTURE_URL,
       SMTP_PORT: String(SMTP_PORT),
@@ -48,7 +93,6 @@ export async function startTestApp(opts: { seed?: boolean; config?: Partial<AppC
   const { app, openapi } = await createApp(config);
   await app.listen(0, '127.0.0.1');
   const port = (app.getHttpServer().address() as AddressInfo).port;
-  const extra: NestExpressApplication[] = [];
   return {
     url: `http://127.0.0.1:${port}`,
     app,
@@ -57,15 +101,8 @@ export async function startTestApp(opts: { seed?: boolean; config?: Partial<AppC
     pool,
     dbUrl: database.url,
     config,
-    another: async () => {
-      const second = await createApp(config);
-      await second.app.listen(0, '127.0.0.1');
-      extra.push(second.app);
-      const p = (second.app.getHttpServer().address() as AddressInfo).port;
-      return { url: `http://127.0.0.1:${p}`, close: () => second.app.close() };
-    },
+    another: () => spawnApi(database.url),
     close: async () => {
-      for (const a of extra) await a.close().catch(() => undefined);
       await app.close();
       await pool.end();
       await database.drop();

@@ -2,8 +2,9 @@ import { bigserial, index, jsonb, pgTable, text, timestamp, uuid } from 'drizzle
 import { appUser } from './app-user';
 
 /**
- * One row per change, written in the same transaction as the change. Append-only: the history
- * ledger work adds the trigger and the hash chain.
+ * One row per change, written in the same transaction as the change. Append-only: a trigger
+ * refuses UPDATE, DELETE and TRUNCATE, and each row carries a hash chained to the previous row's,
+ * so a change made behind the trigger's back is found by verification.
  */
 export const auditEvent = pgTable(
   'audit_event',
@@ -18,6 +19,9 @@ export const auditEvent = pgTable(
     before: jsonb(),
     after: jsonb(),
     reason: text(),
+    /** SHA-256 (hex) of the previous row's hash and this row's canonical content. */
+    prevHash: text(),
+    hash: text().notNull(),
   },
   (t) => [index('audit_event_entity_idx').on(t.entity, t.entityId), index('audit_event_at_idx').on(t.at)],
 );

@@ -41,6 +41,17 @@ function Datum({ label, children, sub }: { label: string; children: ReactNode; s
   );
 }
 
+/** The API stores how the density was found; say it in words. */
+function densityBasis(source: string): string {
+  switch (source) {
+    case 'table': return 'conventional value for this grade';
+    case 'interpolated': return 'estimated from the grade (interpolated)';
+    case 'extrapolated': return 'estimated from the grade (extended)';
+    case 'set by engineer': return 'set by the engineer';
+    default: return source;
+  }
+}
+
 function PartData({ part }: { part: Part }) {
   const s = useStyles();
   const opt = (v: number | null, unit = '') => (v == null ? '—' : `${v}${unit}`);
@@ -48,7 +59,7 @@ function PartData({ part }: { part: Part }) {
     <dl className={s.dl}>
       <Datum label="Construction">{CONSTRUCTION_LABELS[part.construction]}</Datum>
       <Datum label="Steel grade" sub={`${part.lossWPerKg} W/kg at 1.5 T, 50 Hz · ${part.gradeThicknessMm} mm`}>{part.steelGrade}</Datum>
-      <Datum label="Density" sub={part.densitySource}>{part.densityGcm3} g/cm³</Datum>
+      <Datum label="Density" sub={densityBasis(part.densitySource)}>{part.densityGcm3} g/cm³</Datum>
       <Datum label="Lamination thickness">{part.laminationThicknessMm} mm</Datum>
       <Datum label="Lamination net area">{part.laminationAreaCm2} cm²</Datum>
       <Datum label="Bore">{part.nominalBoreMm} mm</Datum>

@@ -58,7 +58,9 @@ function PlanEditor({ plan, tab }: { plan: Plan; tab: 'characteristics' | 'chang
   const editable = canWrite && plan.status === 'draft';
   const initial = useMemo(() => draftFrom(plan), [plan]);
   const [draft, setDraft] = useState<PlanDraft>(initial);
-  const [errors, setErrors] = useState<Record<string, string>>({});
+  // Server errors stay until their field is edited; the schema's own are re-checked live once a save was tried.
+  const [serverErrors, setServerErrors] = useState<Record<string, string>>({});
+  const [attempted, setAttempted] = useState(false);
   const [message, setMessage] = useState<{ text: string; stale?: boolean } | null>(null);
   const [detailsOf, setDetailsOf] = useState<number | null>(null);
   const [activating, setActivating] = useState(false);
@@ -79,8 +81,11 @@ function PlanEditor({ plan, tab }: { plan: Plan; tab: 'characteristics' | 'chang
     return () => window.removeEventListener('beforeunload', warn);
   }, [dirty]);
 
+  const clientErrors = useMemo(() => (attempted ? validateDraft(toUpdateInput(draft, plan.version)) : {}), [attempted, draft, plan.version]);
+  const errors = useMemo(() => ({ ...serverErrors, ...clientErrors }), [serverErrors, clientErrors]);
+
   const clear = (key?: string) =>
-    setErrors((e) => {
+    setServerErrors((e) => {
       if (key === undefined) return Object.fromEntries(Object.entries(e).filter(([k]) => !k.startsWith('characteristics')));
       if (!(key in e)) return e;
       const { [key]: _gone, ...rest } = e;
@@ -94,19 +99,16 @@ function PlanEditor({ plan, tab }: { plan: Plan; tab: 'characteristics' | 'chang
 
   const save = async () => {
     setMessage(null);
+    setServerErrors({});
+    setAttempted(true);
     const body = toUpdateInput(draft, plan.version);
-    const found = validateDraft(body);
-    if (Object.keys(found).length) {
-      setErrors(found);
-      setMessage({ text: 'Nothing was saved: some fields need attention.' });
-      return;
-    }
+    if (Object.keys(validateDraft(body)).length) return;
     try {
       await update.mutateAsync({ id: plan.id, ...body });
       dispatchToast(<Toast><ToastTitle>Draft rev {plan.revision} saved</ToastTitle></Toast>, { intent: 'success' });
     } catch (err) {
       if (err instanceof ApiError) {
-        setErrors(err.fields ?? {});
+        setServerErrors(err.fields ?? {});
         setMessage({ text: err.message, stale: err.code === 'stale' });
       } else setMessage({ text: err instanceof Error ? err.message : 'Something went wrong' });
     }
@@ -179,10 +181,10 @@ function PlanEditor({ plan, tab }: { plan: Plan; tab: 'characteristics' | 'chang
           </MessageBar>
         ) : null}
 
-        {message ? (
+        {message || Object.keys(clientErrors).length ? (
           <MessageBar className={s.banner} intent="error" role="alert" layout="multiline">
             <MessageBarBody>
-              {message.text}
+              {message?.text ?? 'Nothing was saved: some fields need attention.'}
               {errorKeys.length ? (
                 <ul className={s.errors}>
                   {errorKeys.slice(0, 12).map((k) => (
@@ -194,7 +196,7 @@ function PlanEditor({ plan, tab }: { plan: Plan; tab: 'characteristics' | 'chang
                 </ul>
               ) : null}
             </MessageBarBody>
-            {message.stale ? (
+            {message?.stale ? (
               <MessageBarActions>
                 <Button onClick={() => window.location.reload()}>Reload</Button>
               </MessageBarActions>

@@ -9,8 +9,8 @@ import { SidePanel } from '../../../components/side-panel';
 import { useCreateGauge, useUpdateGauge } from '../api/gauges';
 
 const useStyles = makeStyles({
-  fields: { display: 'flex', flexDirection: 'column', gap: '14px' },
-  pair: { display: 'grid', gridTemplateColumns: '1fr 1fr', gap: '12px' },
+  fields: { display: 'flex', flexDirection: 'column', gap: '14px', '& .fui-Input': { minWidth: 0, width: '100%' } },
+  pair: { display: 'grid', gridTemplateColumns: 'repeat(2, minmax(0, 1fr))', gap: '12px', alignItems: 'start' },
   tag: { fontFamily: tokens.fontFamilyMonospace, fontWeight: 600 },
 });
 

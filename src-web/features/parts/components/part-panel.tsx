@@ -7,9 +7,10 @@ import { useCreatePart } from '../api/parts';
 import { CONSTRUCTION_LABELS } from './construction';
 
 const useStyles = makeStyles({
-  fields: { display: 'flex', flexDirection: 'column', gap: '14px' },
-  pair: { display: 'grid', gridTemplateColumns: '1fr 1fr', gap: '12px' },
-  triple: { display: 'grid', gridTemplateColumns: '1fr 1fr 1fr', gap: '12px' },
+  // Fluent inputs keep an intrinsic minimum width; in a grid cell they must shrink to fit.
+  fields: { display: 'flex', flexDirection: 'column', gap: '14px', '& .fui-Input': { minWidth: 0, width: '100%' } },
+  pair: { display: 'grid', gridTemplateColumns: 'repeat(2, minmax(0, 1fr))', gap: '12px', alignItems: 'start' },
+  triple: { display: 'grid', gridTemplateColumns: 'repeat(3, minmax(0, 1fr))', gap: '12px', alignItems: 'start' },
   section: { fontWeight: 600, marginTop: '6px', paddingBottom: '4px', borderBottom: `1px solid ${tokens.colorNeutralStroke2}` },
 });
 

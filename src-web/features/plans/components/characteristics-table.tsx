@@ -53,8 +53,8 @@ const opt = <T extends string>(values: readonly T[], labels: Record<T, string>) 
 const angleLayouts = new Set(['two-point', 'probed', 'heights']);
 
 export const COLUMNS: Col[] = [
-  { field: 'code', label: 'Code', head: 'Code', width: 104, type: 'text' },
-  { field: 'name', label: 'Name', head: 'Name', width: 220, type: 'text' },
+  { field: 'code', label: 'Code', head: 'Code', width: 136, type: 'text' },
+  { field: 'name', label: 'Name', head: 'Name', width: 240, type: 'text' },
   { field: 'kind', label: 'Kind', head: 'Kind', width: 100, type: 'select', options: opt(CHARACTERISTIC_KINDS, KIND_LABELS) },
   { field: 'unit', label: 'Unit', head: 'Unit', width: 74, type: 'select', options: [{ value: '', label: '—' }, ...UNITS.map((u) => ({ value: u, label: u }))], applies: (r) => r.kind !== 'attribute' },
   { field: 'nominal', label: 'Nominal', head: 'Nominal', width: 84, type: 'num', applies: (r) => r.kind !== 'attribute' },
@@ -159,9 +159,11 @@ export function CharacteristicsTable({ rows, readOnly, errors, onRows, onDetails
         inputMode={c.type === 'num' ? 'decimal' : undefined}
         autoComplete="off"
         spellCheck={c.field === 'name'}
-        value={String(r[c.field])}
+        // A field that does not apply shows empty (readings: the count the layout implies).
+        value={applies ? String(r[c.field]) : ''}
         disabled={!applies}
         placeholder={c.field === 'readingsPerSample' && !applies ? readingsHint(r) : undefined}
+        title={err ?? (c.field === 'name' ? r.name : undefined)}
         onChange={(e) => set(i, c.field, e.target.value)}
         onKeyDown={onKey(i, c.field)}
       />
