@@ -18,6 +18,7 @@ import { PlansModule } from './plans/plans.module';
 import { StorageModule } from './storage/storage.module';
 import { LotsModule } from './lots/lots.module';
 import { AuditModule } from './audit/audit.module';
+import { RateLimitModule } from './common/rate-limit';
 
 @Module({})
 export class AppModule {
@@ -41,6 +42,7 @@ export class AppModule {
           },
         }),
         DiscoveryModule,
+        RateLimitModule,
         DbModule,
         AuthModule,
         UsersModule,

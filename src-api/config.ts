@@ -28,6 +28,8 @@ const envSchema = z.object({
   LOGIN_MAX_FAILURES: z.coerce.number().int().positive().default(10),
   LOGIN_WINDOW_MINUTES: z.coerce.number().positive().default(15),
   LOGIN_LOCK_MINUTES: z.coerce.number().positive().default(15),
+  LOGIN_RATE_PER_MINUTE: z.coerce.number().int().positive().default(30),
+  UPLOAD_RATE_PER_MINUTE: z.coerce.number().int().positive().default(120),
   WORKERS: z
     .enum(['true', 'false'])
     .default('true')

@@ -11,6 +11,7 @@ import { csrf } from '../common/csrf';
 import { ApiBody, ApiResult } from '../common/openapi';
 import { csrfResponseSchema, loginResponseSchema, loginSchema, meResponseSchema } from '../../shared/schemas/auth';
 import { z } from 'zod';
+import { LoginRateLimit } from '../common/rate-limit';
 
 @ApiTags('auth')
 @Controller('auth')
@@ -28,7 +29,9 @@ export class AuthController {
   @Post('login')
   @HttpCode(200)
   @Roles(PUBLIC)
+  // Guards run in the order they are listed: count the attempt before the password is checked.
   @UseGuards(LoginGuard)
+  @LoginRateLimit()
   @ApiOperation({ summary: 'Sign in with e-mail and password (starts a new session)' })
   @ApiBody(loginSchema)
   @ApiResult(loginResponseSchema)

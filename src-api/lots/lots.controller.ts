@@ -1,6 +1,7 @@
 import { Body, Controller, Get, HttpCode, Param, Post, Put, Query, Res, StreamableFile, UploadedFile, UseInterceptors } from '@nestjs/common';
 import { FileInterceptor } from '@nestjs/platform-express';
 import { ApiConsumes, ApiOperation, ApiTags } from '@nestjs/swagger';
+import { UploadRateLimit } from '../common/rate-limit';
 import type { Response } from 'express';
 import { z } from 'zod';
 import { Roles, SIGNED_IN } from '../common/roles.decorator';
@@ -87,6 +88,7 @@ export class LotsController {
   @ApiOperation({ summary: 'Add a photo (JPEG/PNG/WebP ≤ 20 MB; re-encoded, metadata stripped). Fields: file, sampleId?, characteristicCode?, caption?' })
   @ApiConsumes('multipart/form-data')
   @ApiResult(photoSchema, 201)
+  @UploadRateLimit()
   @UseInterceptors(FileInterceptor('file', { limits: { fileSize: MAX_PHOTO_BYTES, files: 1, fields: 10, fieldSize: 4096 } }))
   photo(
     @CurrentUser() user: SessionUser,
@@ -123,6 +125,7 @@ export class LotsController {
   @ApiOperation({ summary: 'Import readings from a gauge/CMM CSV: fields file and mapping (JSON: serialColumn, columns {code: [cols]}, gaugeIds?). All or nothing.' })
   @ApiConsumes('multipart/form-data')
   @ApiResult(z.object({ importId: z.string(), rows: z.number(), readings: z.number() }), 201)
+  @UploadRateLimit()
   @UseInterceptors(FileInterceptor('file', { limits: { fileSize: MAX_CSV_BYTES, files: 1, fieldSize: 256 * 1024 } }))
   import(
     @CurrentUser() user: SessionUser,

@@ -1,4 +1,4 @@
-import { Button, Caption1, Input, Spinner, TableHeaderCell, makeStyles, mergeClasses, tokens } from '@fluentui/react-components';
+import { Button, Caption1, Field, Input, Select, Spinner, TableHeaderCell, makeStyles, mergeClasses, tokens } from '@fluentui/react-components';
 import { useEffect, useState, type ReactNode } from 'react';
 
 const useStyles = makeStyles({
@@ -7,6 +7,8 @@ const useStyles = makeStyles({
     borderRadius: tokens.borderRadiusLarge,
     overflowX: 'auto',
     backgroundColor: tokens.colorNeutralBackground1,
+    // Columns sized by their content (Fluent's tables split the width evenly by default).
+    '& table': { tableLayout: 'auto' },
   },
   toolbar: { display: 'flex', flexWrap: 'wrap', alignItems: 'flex-end', gap: '12px', marginBottom: '12px' },
   sortBtn: {
@@ -29,7 +31,12 @@ const useStyles = makeStyles({
   touch: { minHeight: '44px', minWidth: '44px' },
   loading: { padding: '24px', display: 'flex', justifyContent: 'center' },
   search: { minWidth: '260px' },
-  headCell: { backgroundColor: tokens.colorNeutralBackground2 },
+  select: { minWidth: '200px' },
+  selectEl: { height: '44px' },
+  headCell: { backgroundColor: tokens.colorNeutralBackground2, whiteSpace: 'nowrap' },
+  toggleGroup: { display: 'flex', flexDirection: 'column', gap: '2px' },
+  toggleLabel: { fontSize: tokens.fontSizeBase300, lineHeight: tokens.lineHeightBase300, color: tokens.colorNeutralForeground1, paddingBottom: '2px' },
+  toggles: { display: 'flex', gap: '6px', flexWrap: 'wrap' },
 });
 
 /** The bordered, horizontally scrolling box every list table sits in (tablets are narrow). */
@@ -97,7 +104,35 @@ export function SearchInput({ value, onChange, label, placeholder }: { value: st
     const t = setTimeout(() => onChange(text.trim()), 300);
     return () => clearTimeout(t);
   }, [text, value, onChange]);
-  return <Input className={mergeClasses(s.search, s.touch)} type="search" aria-label={label} placeholder={placeholder ?? label} value={text} onChange={(_, d) => setText(d.value)} />;
+  return (
+    <Field label="Search">
+      <Input className={mergeClasses(s.search, s.touch)} type="search" aria-label={label} placeholder={placeholder ?? label} value={text} onChange={(_, d) => setText(d.value)} />
+    </Field>
+  );
+}
+
+/** A labelled list filter; the empty choice means "all". */
+export function FilterSelect({ label, value, allLabel, options, onChange }: { label: string; value: string | undefined; allLabel: string; options: readonly { value: string; label: string }[]; onChange: (v: string | undefined) => void }) {
+  const s = useStyles();
+  return (
+    <Field label={label}>
+      <Select className={s.select} select={{ className: s.selectEl }} value={value ?? ''} onChange={(_, d) => onChange(d.value || undefined)}>
+        <option value="">{allLabel}</option>
+        {options.map((o) => <option key={o.value} value={o.value}>{o.label}</option>)}
+      </Select>
+    </Field>
+  );
+}
+
+/** A labelled row of toggle-like buttons for a filter with few values. */
+export function FilterToggles({ label, children }: { label: string; children: ReactNode }) {
+  const s = useStyles();
+  return (
+    <div className={s.toggleGroup}>
+      <span className={s.toggleLabel} aria-hidden>{label}</span>
+      <div className={s.toggles} role="group" aria-label={label}>{children}</div>
+    </div>
+  );
 }
 
 export function Loading({ label = 'Loading' }: { label?: string }) {

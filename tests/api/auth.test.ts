@@ -171,3 +171,17 @@ describe('two API processes', () => {
     }
   });
 });
+
+describe('rate limits', () => {
+  it('answers 429 once one client makes too many sign-in attempts in a minute', async () => {
+    const limited = await t.another({ LOGIN_RATE_PER_MINUTE: '5' });
+    try {
+      const statuses: number[] = [];
+      for (let i = 0; i < 7; i++) statuses.push((await new Http(limited.url).login(`nobody${i}@harrowgate.test`, 'x')).status);
+      expect(statuses.slice(0, 5)).toEqual([401, 401, 401, 401, 401]);
+      expect(statuses.slice(5)).toEqual([429, 429]);
+    } finally {
+      await limited.close();
+    }
+  });
+});

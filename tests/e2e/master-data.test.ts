@@ -152,8 +152,10 @@ describe('plans & parts', () => {
     await insp.getByText('Active plans are never edited — Revise to make a new draft.').waitFor();
     expect(await insp.getByRole('button', { name: 'Revise' }).count()).toBe(0);
     // The API agrees: an inspector's change is refused.
-    const refused = await insp.request.patch(`${BASE}/api/plans/${rev2}`, { data: { version: 1 }, headers: { 'x-csrf-token': 'none' } });
-    expect([401, 403]).toContain(refused.status());
+    const { token } = (await (await insp.request.get(`${BASE}/api/auth/csrf`)).json()) as { token: string };
+    const refused = await insp.request.patch(`${BASE}/api/plans/${rev2}`, { data: { version: 1 }, headers: { 'x-csrf-token': token } });
+    expect(refused.status()).toBe(403);
+    expect(((await refused.json()) as { error: string }).error).not.toBe('csrf');
     await insp.close();
   }, 120_000);
 });

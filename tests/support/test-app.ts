@@ -28,11 +28,11 @@ async function freePort(): Promise<number> {
  * Passport keeps its strategies in one module-level instance, so two apps in one process would
  * share them: a separate process is also the honest model of two servers behind a balancer.
  */
-export async function spawnApi(databaseUrl: string): Promise<{ url: string; close: () => Promise<void> }> {
+export async function spawnApi(databaseUrl: string, env: Record<string, string> = {}): Promise<{ url: string; close: () => Promise<void> }> {
   const port = await freePort();
   const main = path.resolve(__dirname, '../../dist/server/src-api/main.js');
   const child = spawn(process.execPath, [main], {
-    env: { ...process.env, DATABASE_URL: databaseUrl, PORT: String(port), LOG_LEVEL: 'error', NODE_ENV: 'test', WORKERS: 'false', WEB_DIST: '/nonexistent' },
+    env: { ...process.env, DATABASE_URL: databaseUrl, PORT: String(port), LOG_LEVEL: 'error', NODE_ENV: 'test', WORKERS: 'false', WEB_DIST: '/nonexistent', ...env },
     stdio: ['ignore', 'ignore', 'inherit'],
   });
   const url = `http://127.0.0.1:${port}`;
@@ -63,7 +63,7 @@ export interface TestApp {
   dbUrl: string;
   config: AppConfig;
   /** Another API process on another port, sharing this database. */
-  another: () => Promise<{ url: string; close: () => Promise<void> }>;
+  another: (env?: Record<string, string>) => Promise<{ url: string; close: () => Promise<void> }>;
   close: () => Promise<void>;
 }
 
@@ -78,6 +78,9 @@ export function testConfig(databaseUrl: string, overrides: Partial<AppConfig> = 
       SMTP_PORT: String(SMTP_PORT),
       S3_ENDPOINT,
       WORKERS: 'false',
+      // Tests sign in far more often than people do; the rate-limit test sets its own limits.
+      LOGIN_RATE_PER_MINUTE: '10000',
+      UPLOAD_RATE_PER_MINUTE: '10000',
     },
     overrides,
   );
@@ -101,7 +104,7 @@ export async function startTestApp(opts: { seed?: boolean; config?: Partial<AppC
     pool,
     dbUrl: database.url,
     config,
-    another: () => spawnApi(database.url),
+    another: (env) => spawnApi(database.url, env),
     close: async () => {
       await app.close();
       await pool.end();

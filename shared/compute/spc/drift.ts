@@ -488,7 +488,7 @@ export interface HistogramBin {
 export function histogram(values: readonly number[], lsl: number | null, usl: number | null): HistogramBin[] {
   const xs = values.filter(finite);
   if (!xs.length) return [];
-  let lo = Math.min(...xs.slice(0, 1), ...[]);
+  let lo = xs[0];
   let hi = lo;
   for (const v of xs) {
     if (v < lo) lo = v;

@@ -1,9 +1,9 @@
-import { Button, Field, Select, Table, TableBody, TableCell, TableHeader, TableRow, ToggleButton, makeStyles, tokens } from '@fluentui/react-components';
+import { Button, Table, TableBody, TableCell, TableHeader, TableRow, ToggleButton, makeStyles, tokens } from '@fluentui/react-components';
 import { useState } from 'react';
 import { GAUGE_KIND_LABELS, GAUGE_KINDS, type Gauge, type GaugeKind } from '@shared/schemas/master-data';
 import { Page } from '../../components/page';
 import { EmptyState } from '../../components/empty-state';
-import { HeadCell, ListToolbar, Loading, Pager, SearchInput, SortHeader, TableFrame } from '../../components/data-table';
+import { FilterSelect, FilterToggles, HeadCell, ListToolbar, Loading, Pager, SearchInput, SortHeader, TableFrame } from '../../components/data-table';
 import { StatusPill } from '../../components/status-pill';
 import { useListParams } from '../../lib/use-list-params';
 import { useGauges, type CalibrationFilter } from '../../features/gauges/api/gauges';
@@ -17,10 +17,10 @@ const useStyles = makeStyles({
   tag: { fontFamily: tokens.fontFamilyMonospace, fontWeight: 600 },
   muted: { color: tokens.colorNeutralForeground3 },
   num: { fontVariantNumeric: 'tabular-nums', whiteSpace: 'nowrap' },
-  toggles: { display: 'flex', gap: '6px', flexWrap: 'wrap' },
   actions: { display: 'flex', gap: '6px', justifyContent: 'flex-end' },
   rowBtn: { minHeight: '36px' },
-  filter: { minWidth: '200px' },
+  nowrap: { whiteSpace: 'nowrap' },
+  desc: { minWidth: '180px' },
   srOnly: { position: 'absolute', width: '1px', height: '1px', overflow: 'hidden', clip: 'rect(0 0 0 0)', whiteSpace: 'nowrap' },
 });
 
@@ -53,20 +53,15 @@ export function GaugesPage() {
       actions={canWrite ? <Button className={s.touch} appearance="primary" onClick={() => setPanel({ mode: 'create' })}>New gauge</Button> : undefined}
     >
       <ListToolbar>
-        <div className={s.toggles} role="group" aria-label="Calibration">
+        <FilterToggles label="Calibration">
           {CAL_FILTERS.map((f) => (
             <ToggleButton key={f.label} className={s.touch} checked={calibration === f.value} appearance={calibration === f.value ? 'primary' : 'secondary'} onClick={() => setLp({ filters: { calibration: f.value } })}>
               {f.label}
             </ToggleButton>
           ))}
-        </div>
+        </FilterToggles>
         <SearchInput label="Search tag or description" value={lp.q} onChange={(q) => setLp({ q })} />
-        <Field label="Kind">
-          <Select className={s.filter} value={kind ?? ''} onChange={(_, d) => setLp({ filters: { kind: d.value || undefined } })}>
-            <option value="">All kinds</option>
-            {GAUGE_KINDS.map((k) => <option key={k} value={k}>{GAUGE_KIND_LABELS[k]}</option>)}
-          </Select>
-        </Field>
+        <FilterSelect label="Kind" value={kind} allLabel="All kinds" options={GAUGE_KINDS.map((k) => ({ value: k, label: GAUGE_KIND_LABELS[k] }))} onChange={(v) => setLp({ filters: { kind: v } })} />
       </ListToolbar>
       {list.isPending ? (
         <Loading />
@@ -92,18 +87,18 @@ export function GaugesPage() {
               {items.length === 0 ? <TableRow><TableCell colSpan={canWrite ? 9 : 8}>No gauge matches these filters.</TableCell></TableRow> : null}
               {items.map((g) => (
                 <TableRow key={g.id} aria-label={`Gauge ${g.assetTag}`}>
-                  <TableCell className={s.tag}>{g.assetTag}</TableCell>
-                  <TableCell>{GAUGE_KIND_LABELS[g.kind]}</TableCell>
-                  <TableCell>{g.description}</TableCell>
+                  <TableCell className={`${s.tag} ${s.nowrap}`}>{g.assetTag}</TableCell>
+                  <TableCell className={s.nowrap}>{GAUGE_KIND_LABELS[g.kind]}</TableCell>
+                  <TableCell className={s.desc}>{g.description}</TableCell>
                   <TableCell className={s.num}>{g.resolution} {g.unit}</TableCell>
                   <TableCell className={s.num}>{range(g)}</TableCell>
                   <TableCell className={s.num}>{g.calibrationDueOn}</TableCell>
-                  <TableCell><CalibrationPill gauge={g} /></TableCell>
-                  <TableCell>
+                  <TableCell className={s.nowrap}><CalibrationPill gauge={g} /></TableCell>
+                  <TableCell className={s.nowrap}>
                     {g.status === 'in-service' ? <span>{GAUGE_STATUS_LABELS[g.status]}</span> : <StatusPill tone="neutral">{GAUGE_STATUS_LABELS[g.status]}</StatusPill>}
                   </TableCell>
                   {canWrite ? (
-                    <TableCell>
+                    <TableCell className={s.nowrap}>
                       <div className={s.actions}>
                         <Button className={s.rowBtn} size="small" onClick={() => setCalibrating(g)} aria-label={`Record calibration of ${g.assetTag}`}>Record calibration</Button>
                         <Button className={s.rowBtn} size="small" appearance="subtle" onClick={() => setPanel({ mode: 'edit', gauge: g })} aria-label={`Edit gauge ${g.assetTag}`}>Edit</Button>

@@ -1,10 +1,10 @@
-import { Button, Field, Select, Table, TableBody, TableCell, TableHeader, TableRow, makeStyles, tokens } from '@fluentui/react-components';
+import { Button, Table, TableBody, TableCell, TableHeader, TableRow, makeStyles, tokens } from '@fluentui/react-components';
 import { useMemo, useState } from 'react';
 import { Link, useNavigate } from 'react-router-dom';
 import { CONSTRUCTIONS, type Construction } from '@shared/schemas/master-data';
 import { Page } from '../../components/page';
 import { EmptyState } from '../../components/empty-state';
-import { HeadCell, ListToolbar, Loading, Pager, SearchInput, SortHeader, TableFrame } from '../../components/data-table';
+import { FilterSelect, HeadCell, ListToolbar, Loading, Pager, SearchInput, SortHeader, TableFrame } from '../../components/data-table';
 import { StatusPill } from '../../components/status-pill';
 import { useListParams } from '../../lib/use-list-params';
 import { paths } from '../../config/paths';
@@ -19,7 +19,7 @@ const useStyles = makeStyles({
   pn: { fontFamily: tokens.fontFamilyMonospace, fontWeight: 600, color: tokens.colorBrandForeground1, textDecoration: 'none', ':hover': { textDecoration: 'underline' } },
   mono: { fontFamily: tokens.fontFamilyMonospace },
   planLink: { textDecoration: 'none' },
-  filter: { minWidth: '200px' },
+  nowrap: { whiteSpace: 'nowrap' },
 });
 
 const FILTERS = ['construction'] as const;
@@ -45,12 +45,7 @@ export function PlansPartsPage() {
     >
       <ListToolbar>
         <SearchInput label="Search part number or description" value={lp.q} onChange={(q) => setLp({ q })} />
-        <Field label="Construction">
-          <Select className={s.filter} value={construction ?? ''} onChange={(_, d) => setLp({ filters: { construction: d.value || undefined } })}>
-            <option value="">All constructions</option>
-            {CONSTRUCTIONS.map((c) => <option key={c} value={c}>{CONSTRUCTION_LABELS[c]}</option>)}
-          </Select>
-        </Field>
+        <FilterSelect label="Construction" value={construction} allLabel="All constructions" options={CONSTRUCTIONS.map((c) => ({ value: c, label: CONSTRUCTION_LABELS[c] }))} onChange={(v) => setLp({ filters: { construction: v } })} />
       </ListToolbar>
       {list.isPending ? (
         <Loading />
@@ -74,12 +69,12 @@ export function PlansPartsPage() {
               {items.length === 0 ? <TableRow><TableCell colSpan={7}>No part matches these filters.</TableCell></TableRow> : null}
               {items.map((p) => (
                 <TableRow key={p.id}>
-                  <TableCell><Link className={s.pn} to={paths.part(p.id)}>{p.partNumber}</Link></TableCell>
+                  <TableCell className={s.nowrap}><Link className={s.pn} to={paths.part(p.id)}>{p.partNumber}</Link></TableCell>
                   <TableCell className={s.mono}>{p.revision}</TableCell>
                   <TableCell>{p.description}</TableCell>
                   <TableCell>{CONSTRUCTION_LABELS[p.construction]}</TableCell>
                   <TableCell className={s.mono}>{p.steelGrade}</TableCell>
-                  <TableCell>
+                  <TableCell className={s.nowrap}>
                     {p.activePlanId ? (
                       <Link className={s.planLink} to={paths.plan(p.activePlanId)} aria-label={`Active plan of ${p.partNumber}`}>
                         <StatusPill tone="ok">{revOf.has(p.activePlanId) ? `Rev ${revOf.get(p.activePlanId)}` : 'Active'}</StatusPill>

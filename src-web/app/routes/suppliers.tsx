@@ -1,10 +1,10 @@
-import { Button, Caption1, Field, Select, Table, TableBody, TableCell, TableHeader, TableRow, makeStyles, tokens } from '@fluentui/react-components';
+import { Button, Caption1, Table, TableBody, TableCell, TableHeader, TableRow, makeStyles, tokens } from '@fluentui/react-components';
 import { useState } from 'react';
 import { Link, useLocation, useNavigate, useParams } from 'react-router-dom';
 import { APPROVAL_STATUSES, type ApprovalStatus } from '@shared/schemas/master-data';
 import { Page } from '../../components/page';
 import { EmptyState } from '../../components/empty-state';
-import { HeadCell, ListToolbar, Loading, Pager, SearchInput, SortHeader, TableFrame } from '../../components/data-table';
+import { FilterSelect, HeadCell, ListToolbar, Loading, Pager, SearchInput, SortHeader, TableFrame } from '../../components/data-table';
 import { useListParams } from '../../lib/use-list-params';
 import { paths } from '../../config/paths';
 import { useSupplier, useSuppliers } from '../../features/suppliers/api/suppliers';
@@ -17,7 +17,7 @@ const useStyles = makeStyles({
   code: { fontFamily: tokens.fontFamilyMonospace, fontWeight: 600, color: tokens.colorBrandForeground1, textDecoration: 'none', ':hover': { textDecoration: 'underline' } },
   muted: { color: tokens.colorNeutralForeground3 },
   reason: { maxWidth: '32ch', overflow: 'hidden', textOverflow: 'ellipsis', whiteSpace: 'nowrap', display: 'block' },
-  filter: { minWidth: '200px' },
+  nowrap: { whiteSpace: 'nowrap' },
 });
 
 const FILTERS = ['approvalStatus'] as const;
@@ -44,12 +44,7 @@ export function SuppliersPage() {
     >
       <ListToolbar>
         <SearchInput label="Search code or name" value={lp.q} onChange={(q) => setLp({ q })} />
-        <Field label="Approval">
-          <Select className={s.filter} value={approvalStatus ?? ''} onChange={(_, d) => setLp({ filters: { approvalStatus: d.value || undefined } })}>
-            <option value="">All statuses</option>
-            {APPROVAL_STATUSES.map((a) => <option key={a} value={a}>{APPROVAL_LABELS[a]}</option>)}
-          </Select>
-        </Field>
+        <FilterSelect label="Approval" value={approvalStatus} allLabel="All statuses" options={APPROVAL_STATUSES.map((a) => ({ value: a, label: APPROVAL_LABELS[a] }))} onChange={(v) => setLp({ filters: { approvalStatus: v } })} />
       </ListToolbar>
       {list.isPending ? (
         <Loading />
@@ -74,15 +69,15 @@ export function SuppliersPage() {
               ) : null}
               {items.map((x) => (
                 <TableRow key={x.id}>
-                  <TableCell>
+                  <TableCell className={s.nowrap}>
                     <Link className={s.code} to={{ pathname: paths.supplier(x.id), search: location.search }} aria-label={`${canWrite ? 'Edit' : 'Open'} supplier ${x.code}`}>{x.code}</Link>
                   </TableCell>
                   <TableCell>{x.name}</TableCell>
-                  <TableCell>
-                    {x.contactEmails[0]}
+                  <TableCell className={s.nowrap}>
+                    {x.contactEmails[0] ?? <span className={s.muted}>none on record</span>}
                     {x.contactEmails.length > 1 ? <Caption1 className={s.muted}> +{x.contactEmails.length - 1} more</Caption1> : null}
                   </TableCell>
-                  <TableCell><ApprovalPill status={x.approvalStatus} reason={x.approvalReason} /></TableCell>
+                  <TableCell className={s.nowrap}><ApprovalPill status={x.approvalStatus} reason={x.approvalReason} /></TableCell>
                   <TableCell><span className={s.reason} title={x.approvalReason ?? undefined}>{x.approvalReason ?? '—'}</span></TableCell>
                   <TableCell className={s.muted}>{new Date(x.updatedAt).toLocaleDateString()}</TableCell>
                 </TableRow>
