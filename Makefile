@@ -12,6 +12,9 @@ help:
 	@echo "make dev      Vite dev server with proxy + API in watch mode"
 	@echo "make db-reset drop and recreate the demo database"
 	@echo "make lint     eslint with type-aware rules and import boundaries"
+	@echo "make backup   dump the demo database and object storage to backups/<time>"
+	@echo "make restore FILE=backups/<folder>  put a backup back"
+	@echo "make bench    run the benchmarks (not part of make test)"
 
 deps:
 	@scripts/ensure-deps.sh
@@ -54,3 +57,10 @@ db-reset: deps build-api
 
 lint: deps
 	@npx eslint . --max-warnings=0
+
+backup:
+	@scripts/backup.sh backup dev
+
+restore:
+	@test -n "$(FILE)" || { echo "usage: make restore FILE=backups/<folder>"; exit 2; }
+	@scripts/backup.sh restore dev "$(FILE)"

@@ -6,3 +6,6 @@ export * from './part';
 export * from './gauge';
 export * from './plan';
 export * from './lot';
+export * from './ncr';
+export * from './corrective-action';
+export * from './outbox';

@@ -130,6 +130,7 @@ function PlanEditor({ plan, tab }: { plan: Plan; tab: 'characteristics' | 'chang
     if (m) document.getElementById(cellId(Number(m[1]), m[2]))?.focus();
   };
 
+  const names = useMemo(() => Object.fromEntries(plan.characteristics.map((c) => [c.code, c.name])), [plan.characteristics]);
   const errorKeys = Object.keys(errors);
   const activeRev = siblings.data?.items.find((p) => p.status === 'active' && p.id !== plan.id)?.revision;
 
@@ -218,6 +219,7 @@ function PlanEditor({ plan, tab }: { plan: Plan; tab: 'characteristics' | 'chang
             planId={plan.id}
             against={against}
             others={siblings.data?.items ?? []}
+            names={names}
             onAgainst={(a) => setSp(a ? { against: a } : {}, { replace: true })}
           />
         ) : (

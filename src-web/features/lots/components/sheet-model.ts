@@ -117,8 +117,12 @@ export function leadingValues(s: DraftState): number[] {
   return out;
 }
 
-/** A stable fingerprint of what would be sent, to skip resending what the server already has. */
-export const signature = (values: number[], pass: boolean | null, note: string | null, gaugeId: string | null) => JSON.stringify([values, pass, note ?? null, gaugeId ?? null]);
+/**
+ * A stable fingerprint of what would be sent, to skip resending what the server already has.
+ * The gauge is left out on purpose: choosing another gauge later must not re-send readings
+ * already taken with the first one.
+ */
+export const signature = (values: number[], pass: boolean | null, note: string | null) => JSON.stringify([values, pass, note ?? null]);
 
 /** Decimals to show a computed figure with: one more than the limits carry (at most 6). */
 export function decimalsFor(c: Pick<SheetChar, 'lsl' | 'usl' | 'nominal'>): number {
@@ -150,4 +154,43 @@ export function coreStanding(chars: SheetChar[], ev: Record<string, Evaluation>)
     if (e?.conforming === false) out++;
   }
   return { left, out };
+}
+
+type ReadingLike = { sampleId: string; characteristicCode: string; values: number[]; pass: boolean | null; note: string | null };
+
+/**
+ * What the sheet opens with: the server's readings, then the unsent ones from this browser
+ * (newer), then entries typed but not complete yet (newest). Derived values are never drafts.
+ */
+export function initialDrafts(
+  chars: Pick<SheetChar, 'code' | 'kind'>[],
+  saved: ReadingLike[],
+  unsent: ReadingLike[],
+  typed: Record<string, CellDraft>,
+): Record<string, Record<string, CellDraft>> {
+  const entered = new Set(chars.filter((c) => c.kind !== 'derived').map((c) => c.code));
+  const out: Record<string, Record<string, CellDraft>> = {};
+  const put = (sampleId: string, code: string, d: CellDraft) => {
+    if (!entered.has(code)) return;
+    out[sampleId] = { ...(out[sampleId] ?? {}), [code]: d };
+  };
+  const fromReading = (r: ReadingLike): CellDraft => ({ texts: r.values.map(String), pass: r.pass, note: r.note ?? '' });
+  for (const r of saved) put(r.sampleId, r.characteristicCode, fromReading(r));
+  for (const r of unsent) put(r.sampleId, r.characteristicCode, fromReading(r));
+  for (const [key, d] of Object.entries(typed)) {
+    const [sampleId, code] = key.split('|');
+    if (sampleId && code && d && Array.isArray(d.texts)) put(sampleId, code, { texts: d.texts.map(String), pass: d.pass ?? null, note: d.note ?? '' });
+  }
+  return out;
+}
+
+/** The fingerprint of what a core's characteristic holds, for reading rows as they are stored. */
+export const readingSignature = (r: ReadingLike) => signature(r.values, r.pass, r.pass === false ? r.note : null);
+
+/** The fingerprint of a draft, comparable with readingSignature when complete. */
+export function draftSignature(c: SheetChar, d: CellDraft): string {
+  const st = draftState(c, d);
+  if (!st.complete) return `incomplete:${JSON.stringify([d.texts, d.pass, d.note])}`;
+  const pass = c.kind === 'attribute' ? d.pass : null;
+  return signature(draftValues(st), pass, pass === false ? d.note.trim() : null);
 }

@@ -11,8 +11,10 @@ const useStyles = makeStyles({
     textAlign: 'left', fontWeight: 600, padding: '8px 4px', whiteSpace: 'nowrap', backgroundColor: tokens.colorNeutralBackground2,
     borderBottom: `1px solid ${tokens.colorNeutralStroke2}`, color: tokens.colorNeutralForeground2,
   },
+  thRead: { padding: '8px 10px' },
   td: { padding: '3px 3px', borderBottom: `1px solid ${tokens.colorNeutralStroke3}`, verticalAlign: 'middle' },
-  tdRead: { padding: '7px 6px', whiteSpace: 'nowrap' },
+  tdRead: { padding: '8px 10px', whiteSpace: 'nowrap' },
+  nameRead: { whiteSpace: 'normal', minWidth: '220px' },
   num: { textAlign: 'right' },
   stickyA: { position: 'sticky', left: 0, zIndex: 1, backgroundColor: tokens.colorNeutralBackground1, width: '30px', textAlign: 'right', color: tokens.colorNeutralForeground3, paddingRight: '6px' },
   stickyB: { position: 'sticky', left: '30px', zIndex: 1, backgroundColor: tokens.colorNeutralBackground1, boxShadow: `1px 0 0 ${tokens.colorNeutralStroke2}` },
@@ -183,11 +185,14 @@ export function CharacteristicsTable({ rows, readOnly, errors, onRows, onDetails
     <>
       <div className={s.wrap}>
         <table className={s.table} aria-label="Characteristics">
-          <colgroup>
-            <col style={{ width: 30 }} />
-            {COLUMNS.map((c) => <col key={c.field} style={{ width: c.width, minWidth: c.width }} />)}
-            <col style={{ width: readOnly ? 90 : 130 }} />
-          </colgroup>
+          {/* Fixed widths while editing, so columns do not jump as you type; reading sizes to content. */}
+          {readOnly ? null : (
+            <colgroup>
+              <col style={{ width: 30 }} />
+              {COLUMNS.map((c) => <col key={c.field} style={{ width: c.width, minWidth: c.width }} />)}
+              <col style={{ width: 130 }} />
+            </colgroup>
+          )}
           <thead>
             <tr>
               <th className={mergeClasses(s.th, s.stickyA, s.stickyHeadA)} scope="col"><abbr title="Position">#</abbr></th>
@@ -195,7 +200,7 @@ export function CharacteristicsTable({ rows, readOnly, errors, onRows, onDetails
                 <th
                   key={c.field}
                   scope="col"
-                  className={mergeClasses(s.th, c.type === 'num' && s.num, c.field === 'code' && s.stickyB, c.field === 'code' && s.stickyHeadB)}
+                  className={mergeClasses(s.th, readOnly && s.thRead, c.type === 'num' && s.num, c.field === 'code' && s.stickyB, c.field === 'code' && s.stickyHeadB)}
                   title={TITLES[c.field] ?? c.label}
                 >
                   {c.head}
@@ -214,7 +219,7 @@ export function CharacteristicsTable({ rows, readOnly, errors, onRows, onDetails
                 <tr key={r.key}>
                   <td className={mergeClasses(s.td, s.stickyA)}>{i + 1}</td>
                   {COLUMNS.map((c) => (
-                    <td key={c.field} className={mergeClasses(s.td, readOnly && s.tdRead, readOnly && c.type === 'num' && s.num, c.field === 'code' && s.stickyB)}>
+                    <td key={c.field} className={mergeClasses(s.td, readOnly && s.tdRead, readOnly && c.type === 'num' && s.num, readOnly && c.field === 'name' && s.nameRead, c.field === 'code' && s.stickyB)}>
                       {readOnly ? readCell(r, c) : renderCell(r, i, c)}
                     </td>
                   ))}

@@ -13,6 +13,7 @@ const useStyles = makeStyles({
   arrow: { color: tokens.colorNeutralForeground3, padding: '0 6px' },
   value: { fontVariantNumeric: 'tabular-nums', overflowWrap: 'anywhere' },
   select: { minWidth: '240px' },
+  name: { color: tokens.colorNeutralForeground3 },
 });
 
 const KIND: Record<PlanChange['kind'], { label: string; tone: Tone }> = {
@@ -20,6 +21,8 @@ const KIND: Record<PlanChange['kind'], { label: string; tone: Tone }> = {
   removed: { label: 'Removed', tone: 'bad' },
   changed: { label: 'Changed', tone: 'pending' },
 };
+
+const nameOf = (v: unknown) => (v && typeof v === 'object' && 'name' in v ? String((v as { name: unknown }).name) : undefined);
 
 /** A before/after value in words: numbers as they are, nothing as "—", a whole characteristic by its code and limits. */
 export function formatValue(v: unknown): string {
@@ -39,7 +42,14 @@ export function formatValue(v: unknown): string {
 }
 
 /** What changed between this revision and the one it came from (or another revision of the part). */
-export function PlanChanges({ planId, against, others, onAgainst }: { planId: string; against?: string; others: PlanSummary[]; onAgainst: (id: string | undefined) => void }) {
+export function PlanChanges({ planId, against, others, names, onAgainst }: {
+  planId: string;
+  against?: string;
+  others: PlanSummary[];
+  /** Characteristic code → name, to say which one a line is about. */
+  names: Record<string, string>;
+  onAgainst: (id: string | undefined) => void;
+}) {
   const s = useStyles();
   const q = usePlanChanges(planId, against);
   if (q.isPending) return <Loading label="Comparing revisions" />;
@@ -76,7 +86,14 @@ export function PlanChanges({ planId, against, others, onAgainst }: { planId: st
               {changes.map((c, i) => (
                 <TableRow key={i}>
                   <TableCell><StatusPill tone={KIND[c.kind].tone}>{KIND[c.kind].label}</StatusPill></TableCell>
-                  <TableCell>{c.scope === 'sampling' ? 'Sampling rule' : <span className={s.code}>{c.code ?? '—'}</span>}</TableCell>
+                  <TableCell>
+                    {c.scope === 'sampling' ? 'Sampling rule' : (
+                      <>
+                        <span className={s.code}>{c.code ?? '—'}</span>
+                        {c.code && (names[c.code] ?? nameOf(c.before)) ? <span className={s.name}> {names[c.code] ?? nameOf(c.before)}</span> : null}
+                      </>
+                    )}
+                  </TableCell>
                   <TableCell>{c.field ? (FIELD_LABELS[c.field] ?? c.field) : c.scope === 'characteristic' ? 'Characteristic' : '—'}</TableCell>
                   <TableCell className={s.value}>
                     {c.kind === 'added' ? (
