@@ -16,6 +16,7 @@ import type { AppConfig } from './config';
 import { PG_POOL } from './db/client';
 import { csrf, sameOriginOnly } from './common/csrf';
 import { ErrorFilter } from './common/error.filter';
+import { contentTypeGuard, nulGuard } from './common/input-guards';
 
 export interface BuiltApp {
   app: NestExpressApplication;
@@ -51,7 +52,9 @@ export async function createApp(cfg: AppConfig): Promise<BuiltApp> {
       crossOriginEmbedderPolicy: false,
     }),
   );
+  app.use(contentTypeGuard);
   app.use(express.json({ limit: '2mb' }));
+  app.use(nulGuard);
 
   const pool = app.get<Pool>(PG_POOL);
   const PgStore = connectPgSimple(session);

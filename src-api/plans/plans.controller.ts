@@ -21,6 +21,8 @@ import {
   type UpdatePlanInput,
 } from '../../shared/schemas/master-data';
 
+/** Routes that take no input still refuse unexpected fields. */
+const emptyBodySchema = z.object({}).strict().default({});
 const changesQuerySchema = z.object({ against: z.uuid({ message: 'against must be a plan id' }).optional() });
 const planRefSchema = z.object({ id: z.string(), revision: z.number(), status: z.string() });
 const planSummarySchema = planSchema.omit({ characteristics: true }).extend({ characteristicCount: z.number() });
@@ -86,9 +88,10 @@ export class PlansController {
 
   @Post('plans/:id/revise')
   @Roles('engineer')
-  @ApiOperation({ summary: 'Copy this plan into a new draft revision' })
+  @ApiOperation({ summary: 'Copy this plan into a new draft revision (empty body)' })
+  @ApiBody(emptyBodySchema)
   @ApiResult(planSchema, 201)
-  revise(@CurrentUser() user: SessionUser, @Param(new ZodPipe(idParamSchema)) p: { id: string }): Promise<Plan> {
+  revise(@CurrentUser() user: SessionUser, @Param(new ZodPipe(idParamSchema)) p: { id: string }, @Body(new ZodPipe(emptyBodySchema)) _body: object): Promise<Plan> {
     return this.plans.revise(user, p.id);
   }
 
