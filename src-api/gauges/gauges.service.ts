@@ -6,6 +6,7 @@ import { AuditRepository } from '../audit/audit.repository';
 import { conflict, isUniqueViolation, notFound, stale } from '../common/errors';
 import { likeEscape, offsetOf, orderFrom } from '../common/paging';
 import type { SessionUser } from '../../shared/schemas/auth';
+import { ValidationFailed } from '../common/zod.pipe';
 import type { CreateGaugeInput, Gauge, UpdateGaugeInput, gaugeListQuerySchema } from '../../shared/schemas/master-data';
 import type { z } from 'zod';
 
@@ -109,7 +110,7 @@ export class GaugesService {
       const { version: _v, ...rest } = input;
       const min = rest.rangeMin !== undefined ? rest.rangeMin : before.rangeMin;
       const max = rest.rangeMax !== undefined ? rest.rangeMax : before.rangeMax;
-      if (min != null && max != null && min >= max) throw conflict('The range top must be above its bottom', { rangeMax: 'Must be above the bottom' });
+      if (min != null && max != null && min >= max) throw new ValidationFailed({ rangeMax: 'The range top must be above its bottom' });
       const [row] = await tx
         .update(gauge)
         .set({ ...rest, version: before.version + 1, updatedAt: new Date() } as Partial<Row>)

@@ -3,6 +3,8 @@ import { and, asc, count, desc, eq, gte, ilike, inArray, lte, or, sql } from 'dr
 import { DB, type Db, type Tx } from '../db/client';
 import { gauge, inspectionPlan, lot, lotSample, part, photo, planCharacteristic, reading, supplier, switchingEvent, switchingState, type StoredSampling } from '../db/schema';
 import { AuditRepository } from '../audit/audit.repository';
+import { SpcService } from '../spc/spc.service';
+import { recordLotDecisionForCorrectiveActions } from '../corrective-actions/effectiveness';
 import { conflict, notFound, stale } from '../common/errors';
 import { likeEscape, offsetOf, orderFrom } from '../common/paging';
 import { ValidationFailed } from '../common/zod.pipe';
@@ -17,6 +19,17 @@ import { forSupplier, toLot, toSummary } from './lot-views';
 import type { z } from 'zod';
 
 type CharRow = typeof planCharacteristic.$inferSelect;
+interface Row {
+  sampleId: string;
+  code: string;
+  values: number[];
+  value: number | null;
+  pass: boolean | null;
+  conforming: boolean | null;
+  note: string | null;
+  gaugeId: string | null;
+  gaugeDueOn: string | null;
+}
 type PartRow = typeof part.$inferSelect;
 const OPEN_STATUSES = ['received', 'inspecting'] as const;
 
@@ -64,6 +77,7 @@ export class LotsService {
   constructor(
     @Inject(DB) private readonly db: Db,
     private readonly audit: AuditRepository,
+    private readonly spc: SpcService,
   ) {}
 
   /** The switching state row for supplier × part, locked for this transaction. */
@@ -231,22 +245,11 @@ export class LotsService {
       });
       if (Object.keys(fields).length) throw new ValidationFailed(fields, 'Some readings were refused; nothing was saved');
 
-      // Upsert what was entered, in batches (unnest keeps one round trip per batch).
-      const touched = new Set<string>();
+      // Evaluate in memory first (existing readings of the touched cores + what was sent), then
+      // write each row once with its result: one unnest upsert per batch, no read-back.
       const now = clockNow();
-      const gaugeDue = (gid?: string | null) => (gid ? (gaugeById.get(gid)?.calibrationDueOn ?? null) : null);
-      for (let i = 0; i < input.length; i += 2000) {
-        const batch = input.slice(i, i + 2000);
-        await tx
-          .insert(reading)
-          .values(batch.map((r) => ({ lotId, sampleId: r.sampleId, characteristicCode: r.characteristicCode, values: r.values ?? [], pass: r.pass ?? null, note: r.note ?? null, gaugeId: r.gaugeId ?? null, gaugeDueOn: gaugeDue(r.gaugeId), enteredBy: actor.id, enteredAt: now, source })))
-          .onConflictDoUpdate({
-            target: [reading.sampleId, reading.characteristicCode],
-            set: { values: sql`excluded.values`, pass: sql`excluded.pass`, note: sql`excluded.note`, gaugeId: sql`excluded.gauge_id`, gaugeDueOn: sql`excluded.gauge_due_on`, enteredBy: sql`excluded.entered_by`, enteredAt: sql`excluded.entered_at`, source: sql`excluded.source` },
-          });
-        batch.forEach((r) => touched.add(r.sampleId));
-      }
-      await this.recompute(tx, ctx, [...touched], actor.id);
+      const touched = [...new Set(input.map((r) => r.sampleId))];
+      await this.writeEvaluated(tx, ctx, input, touched, { actorId: actor.id, now, source, gaugeDue: (gid) => (gid ? (gaugeById.get(gid)?.calibrationDueOn ?? null) : null) });
       if (ctx.lot.status === 'received') await tx.update(lot).set({ status: 'inspecting', updatedAt: now }).where(eq(lot.id, lotId));
       await this.audit.record(tx, {
         actorId: actor.id,
@@ -254,51 +257,72 @@ export class LotsService {
         action: source === 'import' ? 'lot.readings_imported' : 'lot.readings_saved',
         entity: 'lot',
         entityId: lotId,
-        after: input.length <= 50 ? { readings: input.map((r) => ({ sample: r.sampleId, code: r.characteristicCode, values: r.values, pass: r.pass ?? null, gauge: r.gaugeId ?? null })) } : { count: input.length, cores: touched.size },
+        after: input.length <= 50 ? { readings: input.map((r) => ({ sample: r.sampleId, code: r.characteristicCode, values: r.values, pass: r.pass ?? null, gauge: r.gaugeId ?? null })) } : { count: input.length, cores: touched.length },
       });
       return { saved: input.length };
     };
     return txIn ? work(txIn) : this.db.transaction(work);
   }
 
-  /** Server-side evaluation of the touched cores: stores each value and conformance. */
-  private async recompute(tx: Tx, ctx: Awaited<ReturnType<LotsService['context']>>, sampleIds: string[], actorId: string): Promise<void> {
-    if (!sampleIds.length) return;
+  /**
+   * Server-side evaluation (the authority): merges the touched cores' stored readings with the new
+   * ones, evaluates each core, and upserts entered and derived rows with their value and
+   * conformance. Rows travel as parallel arrays through unnest: one statement per batch.
+   */
+  private async writeEvaluated(
+    tx: Tx,
+    ctx: Awaited<ReturnType<LotsService['context']>>,
+    input: ReadingInput[],
+    sampleIds: string[],
+    o: { actorId: string; now: Date; source: 'bench' | 'import'; gaugeDue: (gaugeId?: string | null) => string | null },
+  ): Promise<void> {
     const chars = ctx.chars.map(evalChar);
     const p = evalPart(ctx.part);
-    const rows = await tx.select().from(reading).where(and(eq(reading.lotId, ctx.lot.id), inArray(reading.sampleId, sampleIds)));
+    const existing = await tx
+      .select({ sampleId: reading.sampleId, code: reading.characteristicCode, values: reading.values, pass: reading.pass })
+      .from(reading)
+      .where(and(eq(reading.lotId, ctx.lot.id), inArray(reading.sampleId, sampleIds)));
     const bySample = new Map<string, Record<string, RawReading>>();
-    for (const r of rows) {
+    for (const r of existing) {
       const m = bySample.get(r.sampleId) ?? {};
-      m[r.characteristicCode] = { values: r.values, pass: r.pass };
+      m[r.code] = { values: r.values, pass: r.pass };
       bySample.set(r.sampleId, m);
     }
-    const updates: { sampleId: string; code: string; value: number | null; conforming: boolean | null }[] = [];
-    const derivedRows: (typeof reading.$inferInsert)[] = [];
+    for (const r of input) {
+      const m = bySample.get(r.sampleId) ?? {};
+      m[r.characteristicCode] = { values: r.values ?? [], pass: r.pass ?? null };
+      bySample.set(r.sampleId, m);
+    }
+    const evals = new Map<string, ReturnType<typeof evaluateSample>>();
+    for (const sid of sampleIds) evals.set(sid, evaluateSample(chars, p, bySample.get(sid) ?? {}));
+
+    const rows: Row[] = input.map((r) => {
+      const e = evals.get(r.sampleId)![r.characteristicCode];
+      return { sampleId: r.sampleId, code: r.characteristicCode, values: r.values ?? [], value: e?.value ?? null, pass: r.pass ?? null, conforming: e?.conforming ?? null, note: r.note ?? null, gaugeId: r.gaugeId ?? null, gaugeDueOn: o.gaugeDue(r.gaugeId) };
+    });
     for (const sid of sampleIds) {
-      const ev = evaluateSample(chars, p, bySample.get(sid) ?? {});
+      const ev = evals.get(sid)!;
       for (const c of chars) {
-        const e = ev[c.code];
-        if (c.kind === 'derived') {
-          if (e.value != null) derivedRows.push({ lotId: ctx.lot.id, sampleId: sid, characteristicCode: c.code, values: [], value: e.value, conforming: e.conforming, enteredBy: actorId });
-        } else if (bySample.get(sid)?.[c.code]) updates.push({ sampleId: sid, code: c.code, value: e.value, conforming: e.conforming });
+        if (c.kind !== 'derived' || ev[c.code].value == null) continue;
+        rows.push({ sampleId: sid, code: c.code, values: [], value: ev[c.code].value, pass: null, conforming: ev[c.code].conforming, note: null, gaugeId: null, gaugeDueOn: null });
       }
     }
-    if (updates.length) {
-      await tx.execute(sql`
-        update reading r set value = u.value, conforming = u.conforming
-        from (select unnest(${sql.param(updates.map((u) => u.sampleId))}::uuid[]) as sample_id,
-                     unnest(${sql.param(updates.map((u) => u.code))}::text[]) as code,
-                     unnest(${sql.param(updates.map((u) => u.value))}::float8[]) as value,
-                     unnest(${sql.param(updates.map((u) => u.conforming))}::boolean[]) as conforming) u
-        where r.sample_id = u.sample_id and r.characteristic_code = u.code`);
-    }
-    if (derivedRows.length) {
-      await tx
-        .insert(reading)
-        .values(derivedRows)
-        .onConflictDoUpdate({ target: [reading.sampleId, reading.characteristicCode], set: { value: sql`excluded.value`, conforming: sql`excluded.conforming`, enteredAt: sql`now()` } });
-    }
+    for (let i = 0; i < rows.length; i += 5000) await this.upsertRows(tx, ctx.lot.id, rows.slice(i, i + 5000), o);
+  }
+
+  private async upsertRows(tx: Tx, lotId: string, rows: Row[], o: { actorId: string; now: Date; source: 'bench' | 'import' }): Promise<void> {
+    const col = <K extends keyof Row>(k: K) => sql.param(rows.map((r) => r[k]));
+    // float8[] per row travels as its array literal; unnest of a 2-D array would flatten it.
+    const literals = sql.param(rows.map((r) => `{${r.values.join(',')}}`));
+    await tx.execute(sql`
+      insert into reading (lot_id, sample_id, characteristic_code, values, value, pass, conforming, note, gauge_id, gauge_due_on, entered_by, entered_at, source)
+      select ${lotId}::uuid, u.sample_id, u.code, u.vals::float8[], u.value, u.pass, u.conforming, u.note, u.gauge_id, u.gauge_due_on, ${o.actorId}::uuid, ${o.now.toISOString()}::timestamptz, ${o.source}
+      from unnest(${col('sampleId')}::uuid[], ${col('code')}::text[], ${literals}::text[], ${col('value')}::float8[], ${col('pass')}::boolean[],
+                  ${col('conforming')}::boolean[], ${col('note')}::text[], ${col('gaugeId')}::uuid[], ${col('gaugeDueOn')}::date[])
+        as u(sample_id, code, vals, value, pass, conforming, note, gauge_id, gauge_due_on)
+      on conflict (sample_id, characteristic_code) do update set
+        values = excluded.values, value = excluded.value, pass = excluded.pass, conforming = excluded.conforming, note = excluded.note,
+        gauge_id = excluded.gauge_id, gauge_due_on = excluded.gauge_due_on, entered_by = excluded.entered_by, entered_at = excluded.entered_at, source = excluded.source`);
   }
 
   /** The proposal from the stored results: nonconforming cores against Ac/Re; a critical failure rejects. */
@@ -344,6 +368,10 @@ export class LotsService {
         reason: body.comment,
       });
       await this.updateSwitching(tx, actor, locked, body.decision === 'accept', prop.nonconforming);
+      // Drift watch: new run-rule violations at this lot's points become drift signals.
+      await this.spc.refreshSignals(tx, locked.supplierId, locked.partId, { lotId, actor });
+      // Corrective actions in verification count accepted lots of this supplier × part.
+      await recordLotDecisionForCorrectiveActions(tx, locked, body.decision === 'accept', actor);
     });
     return this.get(actor, lotId);
   }

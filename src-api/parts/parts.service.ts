@@ -57,7 +57,7 @@ function gradeFields(steelGrade: string, densityGcm3: number | null | undefined)
       lossWPerKg: g.lossWPerKg,
       gradeThicknessMm: g.thicknessMm,
       densityGcm3: d ?? dflt.density,
-      densitySource: d == null ? dflt.source : 'set by engineer',
+      densitySource: d == null ? `${dflt.basis}` : 'set by engineer',
     };
   } catch (err) {
     if (err instanceof ComputeError) throw new ValidationFailed({ steelGrade: err.message });
@@ -132,8 +132,8 @@ export class PartsService {
           })
           .returning();
         await this.audit.record(tx, { actorId: actor.id, actorEmail: actor.email, action: 'part.created', entity: 'part', entityId: row.id, after: toPart(row) });
-        return toPart(row);
-      });
+        return row.id;
+      }).then((id) => this.get(id));
     } catch (err) {
       if (isUniqueViolation(err)) throw conflict(`Part ${input.partNumber} revision ${input.revision} already exists`, { revision: 'This part number already has this revision' });
       throw err;
@@ -159,8 +159,7 @@ export class PartsService {
         .where(eq(part.id, id))
         .returning();
       await this.audit.record(tx, { actorId: actor.id, actorEmail: actor.email, action: 'part.updated', entity: 'part', entityId: id, before: toPart(before), after: toPart(row) });
-      return toPart(row);
-    });
+    }).then(() => this.get(id));
   }
 
   async attachDrawing(actor: SessionUser, id: string, file: { buffer: Buffer; originalname: string; size: number } | undefined): Promise<Part> {
@@ -179,8 +178,7 @@ export class PartsService {
           .where(eq(part.id, id))
           .returning();
         await this.audit.record(tx, { actorId: actor.id, actorEmail: actor.email, action: 'part.drawing_attached', entity: 'part', entityId: id, before: { drawing: existing.drawingName }, after: { drawing: row.drawingName, size: file.size } });
-        return toPart(row);
-      });
+      }).then(() => this.get(id));
     } catch (err) {
       await this.storage.delete(key); // no orphan object when the row did not change
       throw err;

@@ -246,6 +246,11 @@ export class PlansService {
   /** Copies any plan into a new draft revision of the same part. */
   async revise(actor: SessionUser, id: string): Promise<Plan> {
     const src = await this.get(id);
+    const [openDraft] = await this.db
+      .select({ revision: inspectionPlan.revision })
+      .from(inspectionPlan)
+      .where(and(eq(inspectionPlan.partId, src.partId), eq(inspectionPlan.status, 'draft')));
+    if (openDraft) throw conflict(`Revision ${openDraft.revision} of this part is already a draft: change that draft (or activate it) instead of starting another.`);
     const characteristics = src.characteristics.map(({ id: _id, seq: _seq, ...c }) => characteristicInputSchema.parse(c));
     return this.create(
       actor,

@@ -21,7 +21,7 @@ export async function seedDemo(db: Db): Promise<{ created: number }> {
   await db.transaction(async (tx) => {
     const ids = new Map<string, string>();
     for (const s of DEMO_SUPPLIERS) {
-      const inserted = await tx.insert(supplier).values({ code: s.code, name: s.name }).onConflictDoNothing().returning({ id: supplier.id });
+      const inserted = await tx.insert(supplier).values({ code: s.code, name: s.name, contactEmails: [`quality@${s.domain}`] }).onConflictDoNothing().returning({ id: supplier.id });
       created += inserted.length;
       const [row] = await tx.select({ id: supplier.id }).from(supplier).where(eq(supplier.code, s.code));
       ids.set(s.code, row.id);
