@@ -64,3 +64,7 @@ backup:
 restore:
 	@test -n "$(FILE)" || { echo "usage: make restore FILE=backups/<folder>"; exit 2; }
 	@scripts/backup.sh restore dev "$(FILE)"
+
+bench: deps-test build
+	@PGPORT=$${PGPORT:-55434} scripts/pg.sh start bench >/dev/null
+	@PGPORT=$${PGPORT:-55434} node dist/server/bench/run.js $(ONLY)

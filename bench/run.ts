@@ -15,6 +15,7 @@ import { writeResults, type BenchResult } from './lib';
 import { benchAnalyze } from './analyze.bench';
 import { benchPhoto } from './photo.bench';
 import { benchImport } from './import.bench';
+import { benchBundle } from './bundle.bench';
 
 const PGPORT = Number(process.env.PGPORT ?? 55434);
 const only = process.argv.slice(2);
@@ -40,7 +41,8 @@ async function main(): Promise<void> {
   };
   if (want('analyze')) log(await benchAnalyze());
   if (want('photo')) log(await benchPhoto());
-  if (want('import')) {
+  const server = ['import', 'bundle', 'charts', 'load'].some(want);
+  if (server) {
     const url = await freshDb('yokeline_bench');
     const pool = createPool(url, 4);
     await seedDemo(createDb(pool));
@@ -49,12 +51,15 @@ async function main(): Promise<void> {
     await app.listen(0, '127.0.0.1');
     const base = `http://127.0.0.1:${(app.getHttpServer().address() as { port: number }).port}`;
     const eng = await signedIn(base, DEMO.engineer);
-    const s = await makeSupplier(eng);
-    const p = await makePart(eng);
-    const chars = Array.from({ length: 50 }, (_, i) => simpleCharacteristic({ code: `C${i}`, gaugeKind: null, chartKind: 'none' }));
-    const plan = await eng.post('/api/plans', { partId: p.id, samplingKind: 'zero-acceptance', zeroSampleSize: 2000, characteristics: chars });
-    await eng.post(`/api/plans/${plan.body.id}/activate`, { version: plan.body.version });
-    log(await benchImport(eng, pool, { supplierId: s.id, partId: p.id }));
+    if (want('bundle')) log(await benchBundle(base));
+    if (want('import')) {
+      const s = await makeSupplier(eng);
+      const p = await makePart(eng);
+      const chars = Array.from({ length: 50 }, (_, i) => simpleCharacteristic({ code: `C${i}`, gaugeKind: null, chartKind: 'none' }));
+      const plan = await eng.post('/api/plans', { partId: p.id, samplingKind: 'zero-acceptance', zeroSampleSize: 2000, characteristics: chars });
+      await eng.post(`/api/plans/${plan.body.id}/activate`, { version: plan.body.version });
+      log(await benchImport(eng, pool, { supplierId: s.id, partId: p.id }));
+    }
     await app.close();
     await pool.end();
   }

@@ -18,7 +18,14 @@ import { PlansModule } from './plans/plans.module';
 import { StorageModule } from './storage/storage.module';
 import { LotsModule } from './lots/lots.module';
 import { AuditModule } from './audit/audit.module';
+import { LedgerModule } from './ledger/ledger.module';
+import { ExportsModule } from './exports/exports.module';
+import { SpcModule } from './spc/spc.module';
 import { RateLimitModule } from './common/rate-limit';
+import { MailModule } from './mail/mail.module';
+import { NcrsModule } from './ncrs/ncrs.module';
+import { CorrectiveActionsModule } from './corrective-actions/corrective-actions.module';
+import { SupplierDeskModule } from './supplier-desk/supplier-desk.module';
 
 @Module({})
 export class AppModule {
@@ -53,6 +60,13 @@ export class AppModule {
         PlansModule,
         LotsModule,
         AuditModule,
+        LedgerModule,
+        ExportsModule,
+        SpcModule,
+        MailModule,
+        NcrsModule,
+        CorrectiveActionsModule,
+        SupplierDeskModule,
         ...(cfg.MAIL_CAPTURE_URL && cfg.NODE_ENV !== 'production' ? [DevModule] : []),
       ],
       controllers: [HealthController],

@@ -34,6 +34,20 @@ const envSchema = z.object({
     .enum(['true', 'false'])
     .default('true')
     .transform((v) => v === 'true'),
+  /** Corrective-action response times (common practice: containment 24 h, root cause 10 working days, closure 30–60 days). */
+  SCAR_CONTAINMENT_WORKING_DAYS: z.coerce.number().int().min(0).max(30).default(1),
+  SCAR_ROOT_CAUSE_WORKING_DAYS: z.coerce.number().int().min(1).max(60).default(10),
+  SCAR_CLOSURE_DAYS: z.coerce.number().int().min(1).max(365).default(45),
+  /** Lots of the supplier × part that must pass without the defect before a SCAR may close. */
+  SCAR_VERIFY_LOTS: z.coerce.number().int().min(1).max(50).default(3),
+  /** Use as is needs a second engineer's signature beside the first. */
+  USE_AS_IS_COUNTERSIGN: z
+    .enum(['true', 'false'])
+    .default('true')
+    .transform((v) => v === 'true'),
+  /** Outbox delivery: attempts before a mail is marked failed, and the first retry delay. */
+  MAIL_MAX_ATTEMPTS: z.coerce.number().int().min(1).max(50).default(8),
+  MAIL_RETRY_BASE_SECONDS: z.coerce.number().min(1).max(3600).default(30),
 });
 
 export type AppConfig = z.infer<typeof envSchema>;

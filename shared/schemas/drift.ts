@@ -93,25 +93,39 @@ export const pointFlagSchema = z.object({
   signalId: z.string().nullable(),
 });
 
+/** One plotted subgroup; fields that do not apply are left out (5 000 points stay small). */
 export const chartPointSchema = z.object({
+  /** Position in the whole history (the range filter keeps it). */
   index: z.number().int(),
   lotId: z.string(),
   lotRef: z.number().int(),
+  /** 1-based lot sequence (the forecast's x). */
   lotSeq: z.number().int(),
   receivedAt: z.string(),
-  decidedAt: z.string(),
-  sampleId: z.string().nullable(),
-  serial: z.number().int().nullable(),
-  chunk: z.number().int().nullable(),
-  /** The subgroup's measurements (empty for p). */
-  subgroup: z.array(z.number()),
+  /** The core (per-core subgroups and individuals). */
+  serial: z.number().int().optional(),
+  /** Which group of a core's readings, when a core gives several subgroups. */
+  chunk: z.number().int().optional(),
+  value: z.number(),
+  /** Range, s or moving range. */
+  dispersion: z.number().optional(),
+  /** Index into `segments`: the limits that judged this point. */
+  segment: z.number().int(),
+  /** p charts: this lot's limits (they vary with its sample size). */
+  ucl: z.number().optional(),
+  lcl: z.number().optional(),
   defectives: z.number().int().optional(),
   size: z.number().int().optional(),
-  value: z.number(),
-  dispersion: z.number().nullable(),
-  limits: limitsSchema.nullable(),
+  flags: z.array(pointFlagSchema).optional(),
+});
+export const segmentSchema = z.object({
+  from: z.number().int(),
+  to: z.number().int(),
+  /** null = trial limits (before any freeze). */
   limitVersion: z.number().int().nullable(),
-  flags: z.array(pointFlagSchema),
+  center: z.number().nullable(),
+  sigmaWithin: z.number().nullable(),
+  limits: limitsSchema.nullable(),
 });
 export type ChartPoint = z.infer<typeof chartPointSchema>;
 
@@ -223,6 +237,8 @@ export const chartResponseSchema = z.object({
   /** Subgroups in the requested date range (all subgroups are judged; the range only filters). */
   points: z.array(chartPointSchema),
   totalPoints: z.number().int(),
+  /** Runs of points judged against the same limits, over the whole history. */
+  segments: z.array(segmentSchema),
   skipped: z.array(z.object({ lotId: z.string(), lotRef: z.number().int(), reason: z.string() })),
   /** The active frozen version, or null while the chart is on trial limits. */
   limits: controlLimitSchema.nullable(),

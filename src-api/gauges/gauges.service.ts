@@ -1,5 +1,6 @@
 import { Inject, Injectable } from '@nestjs/common';
 import { and, count, eq, gte, ilike, lt, lte, or, sql } from 'drizzle-orm';
+import { now as clockNow } from '../common/clock';
 import { DB, type Db, type DbOrTx } from '../db/client';
 import { gauge } from '../db/schema';
 import { AuditRepository } from '../audit/audit.repository';
@@ -14,7 +15,7 @@ type Row = typeof gauge.$inferSelect;
 export const DUE_SOON_DAYS = 30;
 
 /** Today as a calendar date in UTC: calibration is due on a date, not at an instant. */
-export function todayIso(now = new Date()): string {
+export function todayIso(now = clockNow()): string {
   return now.toISOString().slice(0, 10);
 }
 
@@ -113,7 +114,7 @@ export class GaugesService {
       if (min != null && max != null && min >= max) throw new ValidationFailed({ rangeMax: 'The range top must be above its bottom' });
       const [row] = await tx
         .update(gauge)
-        .set({ ...rest, version: before.version + 1, updatedAt: new Date() } as Partial<Row>)
+        .set({ ...rest, version: before.version + 1, updatedAt: clockNow() } as Partial<Row>)
         .where(eq(gauge.id, id))
         .returning();
       const recal = rest.calibrationDueOn && rest.calibrationDueOn !== before.calibrationDueOn;

@@ -1,5 +1,6 @@
 import { Inject, Injectable, PayloadTooLargeException, UnsupportedMediaTypeException } from '@nestjs/common';
 import { and, count, eq, ilike, or } from 'drizzle-orm';
+import { now as clockNow } from '../common/clock';
 import { DB, type Db } from '../db/client';
 import { inspectionPlan, part } from '../db/schema';
 import { AuditRepository } from '../audit/audit.repository';
@@ -155,7 +156,7 @@ export class PartsService {
       const { version: _v, ...rest } = input;
       const [row] = await tx
         .update(part)
-        .set({ ...rest, ...grade, version: before.version + 1, updatedAt: new Date() } as Partial<Row>)
+        .set({ ...rest, ...grade, version: before.version + 1, updatedAt: clockNow() } as Partial<Row>)
         .where(eq(part.id, id))
         .returning();
       await this.audit.record(tx, { actorId: actor.id, actorEmail: actor.email, action: 'part.updated', entity: 'part', entityId: id, before: toPart(before), after: toPart(row) });
@@ -174,7 +175,7 @@ export class PartsService {
       return await this.db.transaction(async (tx) => {
         const [row] = await tx
           .update(part)
-          .set({ drawingKey: key, drawingName: file.originalname.slice(0, 120), drawingSize: file.size, version: existing.version + 1, updatedAt: new Date() })
+          .set({ drawingKey: key, drawingName: file.originalname.slice(0, 120), drawingSize: file.size, version: existing.version + 1, updatedAt: clockNow() })
           .where(eq(part.id, id))
           .returning();
         await this.audit.record(tx, { actorId: actor.id, actorEmail: actor.email, action: 'part.drawing_attached', entity: 'part', entityId: id, before: { drawing: existing.drawingName }, after: { drawing: row.drawingName, size: file.size } });

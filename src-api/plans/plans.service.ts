@@ -1,5 +1,6 @@
 import { BadRequestException, Inject, Injectable } from '@nestjs/common';
 import { and, asc, count, desc, eq, max, sql } from 'drizzle-orm';
+import { now as clockNow } from '../common/clock';
 import { DB, type Db, type Tx } from '../db/client';
 import { inspectionPlan, part, planCharacteristic } from '../db/schema';
 import { AuditRepository } from '../audit/audit.repository';
@@ -203,7 +204,7 @@ export class PlansService {
       if (kind === 'zero-acceptance' && merged.zeroSampleSize == null) throw new ValidationFailed({ zeroSampleSize: 'Give the fixed sample size' });
       await tx
         .update(inspectionPlan)
-        .set({ ...merged, notes: input.notes !== undefined ? input.notes : row.notes, version: row.version + 1, updatedAt: new Date() })
+        .set({ ...merged, notes: input.notes !== undefined ? input.notes : row.notes, version: row.version + 1, updatedAt: clockNow() })
         .where(eq(inspectionPlan.id, id));
       if (input.characteristics) {
         const chars = input.characteristics.map((c) => characteristicInputSchema.parse(c));
@@ -228,7 +229,7 @@ export class PlansService {
       if (row.version !== version) throw stale('plan');
       const [{ n }] = await tx.select({ n: count() }).from(planCharacteristic).where(eq(planCharacteristic.planId, id));
       if (n === 0) throw new BadRequestException({ error: 'validation', message: 'A plan with no characteristics cannot be activated. Add what to measure or check first.', fields: { characteristics: 'Add at least one characteristic' } });
-      const now = new Date();
+      const now = clockNow();
       const previous = await tx
         .update(inspectionPlan)
         .set({ status: 'superseded', supersededAt: now, version: sqlInc(), updatedAt: now })

@@ -1,14 +1,14 @@
 import { Injectable } from '@nestjs/common';
-import { and, asc, desc, eq, sql } from 'drizzle-orm';
+import { and, asc, desc, eq, sql, type SQL } from 'drizzle-orm';
 import type { DbOrTx } from '../db/client';
 import { appUser, controlLimit, dieWearForecast, driftSignal, part, planCharacteristic, supplier } from '../db/schema';
-import type { LotResults } from '../../shared/compute/spc/drift';
+import type { fieldsNeeded, LotResults } from '../../shared/compute/spc/drift';
 
 export type CharacteristicRow = typeof planCharacteristic.$inferSelect & { planRevision: number };
 export type ControlLimitRow = typeof controlLimit.$inferSelect & { frozenByEmail: string | null };
 export type DriftSignalRow = typeof driftSignal.$inferSelect;
 
-export interface WatchRowRaw {
+export type WatchRowRaw = {
   supplier_id: string;
   supplier_code: string;
   supplier_name: string;
@@ -29,7 +29,7 @@ export interface WatchRowRaw {
   lots_to_limit_lower: number | null;
   service_lots: number | null;
   service_due: boolean | null;
-}
+};
 
 /**
  * The plan revision in effect for a part: the active one, else the newest that was ever active
@@ -40,6 +40,24 @@ const CURRENT_PLAN = sql`
   from inspection_plan ip
   where ip.status <> 'draft'
   order by ip.part_id, (ip.status = 'active') desc, ip.revision desc`;
+
+export type ChartFields = ReturnType<typeof fieldsNeeded>;
+const NO_VALUES: readonly number[] = Object.freeze([]);
+const iso = (d: Date | string) => (d instanceof Date ? d : new Date(d)).toISOString();
+
+/** The chart's one query (exported so the benchmark times exactly it). */
+export function lotResultsQuery(supplierId: string, partId: string, code: string, f: ChartFields) {
+  const col = (want: boolean, c: SQL) => (want ? c : sql`null`);
+  return sql`
+    select r.lot_id as id, l.ref, l.received_at, l.decided_at,
+           json_agg(json_build_array(${col(f.sampleId, sql`r.sample_id`)}, s.serial, ${col(f.value, sql`r.value`)}, ${col(f.values, sql`r.values`)}, ${col(f.conforming, sql`r.conforming`)}) order by s.serial) as cores
+    from reading r
+    join lot l on l.id = r.lot_id
+    join lot_sample s on s.id = r.sample_id
+    where r.characteristic_code = ${code} and l.supplier_id = ${supplierId} and l.part_id = ${partId} and l.decided_at is not null
+    group by r.lot_id, l.ref, l.received_at, l.decided_at
+    order by l.received_at, l.ref`;
+}
 
 /** Queries only; the rules live in the service and in shared/compute/spc/drift.ts. */
 @Injectable()
@@ -59,26 +77,23 @@ export class SpcRepository {
 
   /**
    * The decided lots of supplier × part with this characteristic's results, one row per lot in
-   * order of receipt: a single query grouped per lot (index reading_lot_code_idx).
+   * order of receipt: a single query grouped per lot over reading_lot_code_idx, fetching only
+   * the fields the chart reads (`fields`).
    */
-  async lotResults(db: DbOrTx, supplierId: string, partId: string, code: string): Promise<LotResults[]> {
-    const { rows } = await db.execute<{ id: string; ref: number; received_at: Date | string; decided_at: Date | string; cores: [string, number, number | null, number[], boolean | null][] }>(sql`
-      select l.id, l.ref, l.received_at, l.decided_at,
-             json_agg(json_build_array(r.sample_id, s.serial, r.value, r.values, r.conforming) order by s.serial) as cores
-      from lot l
-      join reading r on r.lot_id = l.id and r.characteristic_code = ${code}
-      join lot_sample s on s.id = r.sample_id
-      where l.supplier_id = ${supplierId} and l.part_id = ${partId} and l.decided_at is not null
-      group by l.id
-      order by l.received_at, l.ref`);
-    const iso = (d: Date | string) => (d instanceof Date ? d.toISOString() : new Date(d).toISOString());
-    return rows.map((r) => ({
-      lotId: r.id,
-      lotRef: r.ref,
-      receivedAt: iso(r.received_at),
-      decidedAt: iso(r.decided_at),
-      cores: r.cores.map(([sampleId, serial, value, values, conforming]) => ({ sampleId, serial, value, values: values ?? [], conforming })),
-    }));
+  async lotResults(db: DbOrTx, supplierId: string, partId: string, code: string, fields: ChartFields): Promise<LotResults[]> {
+    const { rows } = await db.execute<{ id: string; ref: number; received_at: Date | string; decided_at: Date | string; cores: [string | null, number, number | null, number[] | null, boolean | null][] }>(lotResultsQuery(supplierId, partId, code, fields));
+    const out: LotResults[] = new Array(rows.length);
+    for (let i = 0; i < rows.length; i++) {
+      const r = rows[i];
+      out[i] = {
+        lotId: r.id,
+        lotRef: r.ref,
+        receivedAt: iso(r.received_at),
+        decidedAt: iso(r.decided_at),
+        cores: r.cores.map((c) => ({ sampleId: c[0] as string, serial: c[1], value: c[2], values: c[3] ?? NO_VALUES, conforming: c[4] })),
+      };
+    }
+    return out;
   }
 
   async versions(db: DbOrTx, supplierId: string, partId: string, code: string): Promise<ControlLimitRow[]> {

@@ -1,5 +1,6 @@
 import { Inject, Injectable } from '@nestjs/common';
 import { and, count, eq, ilike, or, type SQL } from 'drizzle-orm';
+import { now as clockNow } from '../common/clock';
 import { DB, type Db } from '../db/client';
 import { supplier } from '../db/schema';
 import { AuditRepository } from '../audit/audit.repository';
@@ -107,7 +108,7 @@ export class SuppliersService {
           approvalReason: input.approvalReason !== undefined ? input.approvalReason : before.approvalReason,
           notes: input.notes !== undefined ? input.notes : before.notes,
           version: before.version + 1,
-          updatedAt: new Date(),
+          updatedAt: clockNow(),
         })
         .where(eq(supplier.id, id))
         .returning();

@@ -49,11 +49,13 @@ function Home() {
 }
 
 // Pages that later work fills in; each shows an honest empty state until then.
-const built = new Set<string>([paths.admin, paths.plans, paths.suppliers, paths.gauges]);
+const built = new Set<string>([paths.admin, paths.plans, paths.suppliers, paths.gauges, paths.dock, paths.lots, paths.ledger, paths.drift, paths.ncrs, paths.scars, paths.supplierDesk]);
 const placeholders = NAV.filter((n) => !built.has(n.to)).map((n) => ({ path: n.to, element: <ArrivesSoon to={n.to} /> }));
 
 export const router = createBrowserRouter([
   { path: paths.signIn, element: <SignInPage />, loader: signInLoader, errorElement: <RouteErrorBoundary /> },
+  // The hold tag prints alone on an A6 page, outside the app's frame.
+  { path: paths.ncrHoldTag(':id'), loader: requireUser, errorElement: <RouteErrorBoundary />, lazy: async () => ({ Component: (await import('./routes/hold-tag')).HoldTagPage }) },
   {
     id: 'app',
     path: '/',
@@ -71,6 +73,24 @@ export const router = createBrowserRouter([
         // One route with an optional id, so opening a supplier's panel keeps the list mounted.
         { path: `${paths.suppliers}/:id?`, element: <SuppliersPage /> },
         { path: paths.gauges, element: <GaugesPage /> },
+        // The History ledger loads on first visit (auditors, engineers and admins only).
+        { path: paths.ledger, lazy: async () => ({ Component: (await import('./routes/ledger')).LedgerPage }) },
+        { path: paths.ledgerLot(':id'), lazy: async () => ({ Component: (await import('./routes/ledger-lot')).LedgerLotPage }) },
+        // Receiving loads on first visit: the bench sheet and its maths stay out of the first download.
+        { path: paths.dock, lazy: async () => ({ Component: (await import('./routes/dock')).DockPage }) },
+        { path: paths.lots, lazy: async () => ({ Component: (await import('./routes/lots')).LotsPage }) },
+        { path: paths.lot(':id'), lazy: async () => ({ Component: (await import('./routes/lot')).LotPage }) },
+        // Drift watch loads on first visit; its chart library loads only when a chart is opened.
+        { path: paths.drift, lazy: async () => ({ Component: (await import('./routes/drift-watch')).DriftWatchPage }) },
+        { path: `${paths.drift}/:supplierId/:partId/:code`, lazy: async () => ({ Component: (await import('./routes/drift-chart')).DriftChartPage }) },
+        // Nonconformances, corrective actions and the Supplier desk load on first visit.
+        { path: paths.ncrs, lazy: async () => ({ Component: (await import('./routes/ncrs')).NcrsPage }) },
+        { path: paths.ncr(':id'), lazy: async () => ({ Component: (await import('./routes/ncr')).NcrPage }) },
+        { path: paths.scars, lazy: async () => ({ Component: (await import('./routes/scars')).ScarsPage }) },
+        { path: paths.scar(':id'), lazy: async () => ({ Component: (await import('./routes/scar')).ScarPage }) },
+        { path: paths.supplierDesk, lazy: async () => ({ Component: (await import('./routes/supplier-desk')).SupplierDeskPage }) },
+        { path: paths.deskScar(':id'), lazy: async () => ({ Component: (await import('./routes/desk-scar')).DeskScarPage }) },
+        { path: paths.deskNcr(':id'), lazy: async () => ({ Component: (await import('./routes/desk-ncr')).DeskNcrPage }) },
         ...placeholders,
         { path: '*', element: <NotFoundPage /> },
       ] },

@@ -24,7 +24,7 @@ export const NAV: NavItem[] = [
   { label: 'Suppliers', to: paths.suppliers, roles: internal, purpose: 'Stamping suppliers, their contacts and approval status.' },
   { label: 'Gauges', to: paths.gauges, roles: internal, purpose: 'Measuring equipment and calibration due dates.' },
   { label: 'Calculators', to: paths.calculators, roles: internal, purpose: 'Circle fit, eccentricity, stacking factor and insulation resistance, the same maths the bench sheet uses.' },
-  { label: 'History ledger', to: paths.ledger, roles: ['auditor', 'engineer'], purpose: 'The tamper-evident record of every change, and each lot’s whole story.' },
+  { label: 'History ledger', to: paths.ledger, roles: ['auditor', 'engineer', 'admin'], purpose: 'The tamper-evident record of every change, and each lot’s whole story.' },
   { label: 'Admin', to: paths.admin, roles: ['admin'], purpose: 'Users, roles and access.' },
 ];
 

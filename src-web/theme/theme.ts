@@ -51,3 +51,12 @@ export const statusColours = {
   light: { ok: '#1d7a3e', pending: '#9a5b00', bad: '#b3261e', info: verdigris[80] },
   dark: { ok: '#5cc583', pending: '#f0b35a', bad: '#ff8a80', info: verdigris[120] },
 };
+
+/**
+ * Control-chart colours (Drift watch): the plotted line in verdigris, limits in copper, zones as
+ * verdigris tints that deepen toward the centre, flags in the trade's red with a diamond shape.
+ */
+export const chartColours = {
+  light: { line: verdigris[80], center: verdigris[40], limit: copper.light, zoneA: '#b4652e12', zoneB: '#42908718', zoneC: '#42908726', flag: statusColours.light.bad, grid: '#dfe6e4', axis: '#56625f', spec: '#7a4a9c', bar: verdigris[100], background: '#ffffff', text: '#1d2422' },
+  dark: { line: verdigris[130], center: verdigris[150], limit: copper.dark, zoneA: '#d98c5516', zoneB: '#8bbab21c', zoneC: '#8bbab22c', flag: statusColours.dark.bad, grid: '#2b3634', axis: '#a9b6b3', spec: '#c9a3e6', bar: verdigris[110], background: '#141a19', text: '#e4ecea' },
+};

@@ -85,8 +85,20 @@ export const POLICY: Record<string, Rule> = {
   'GET /api/photos/{id}': { allow: ALL, supplier: 'own' },
   'GET /api/photos/{id}/thumbnail': { allow: ALL, supplier: 'own' },
 
+  'GET /api/spc/watch': { allow: QUALITY_READ },
+  'GET /api/spc/charts': { allow: QUALITY_READ },
+  'POST /api/spc/limits': { allow: ENGINEER },
+  'POST /api/spc/signals/{id}/ack': { allow: ENGINEER },
+  'POST /api/spc/analyze': { allow: QUALITY_READ, pure: true },
+
   'GET /api/audit-events': { allow: RECORD_READ },
   'GET /api/audit-events/verify': { allow: RECORD_READ },
+
+  'GET /api/ledger/lots/{id}': { allow: RECORD_READ },
+  'GET /api/exports/lots.csv': { allow: RECORD_READ },
+  'GET /api/exports/readings.csv': { allow: RECORD_READ },
+  'GET /api/exports/audit-events.csv': { allow: RECORD_READ },
+  'GET /api/exports/lots/{id}/report.pdf': { allow: RECORD_READ },
 
   'GET /api/dev/mailbox': { allow: ALL, supplier: 'own' },
 };

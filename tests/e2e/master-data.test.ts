@@ -87,10 +87,30 @@ describe('plans & parts', () => {
     expect(await odLsl.getAttribute('aria-invalid')).toBe('true');
     await screenshot(page, 'plan-editor-cell-error');
 
-    // ── Edit a limit properly and save.
+    // ── Edit a limit properly.
     const usl2 = Number((usl1 + 0.02).toFixed(3));
     await odUsl.fill(String(usl2));
     expect(await odLsl.getAttribute('aria-invalid')).toBeNull();
+
+    // ── A refusal only the server can make (a formula input that is not in the plan) comes back onto its row.
+    await table.getByRole('button', { name: 'Method and details, ECC' }).click();
+    let details = page.getByRole('dialog', { name: 'Method and details' });
+    const inputs = details.getByLabel('Formula inputs');
+    const eccInputs = await inputs.inputValue();
+    await inputs.fill(`${eccInputs}, NOPE`);
+    await details.getByRole('button', { name: 'Done' }).click();
+    await page.getByRole('button', { name: 'Save', exact: true }).click();
+    await page.getByRole('alert').getByText('Input NOPE is not a characteristic of this plan').waitFor();
+    expect(await page.getByRole('alert').textContent()).toContain('(ECC) · Formula inputs');
+    await table.getByRole('button', { name: 'Method and details, ECC' }).getByLabel('has errors').waitFor();
+    await screenshot(page, 'plan-editor-server-error');
+    await table.getByRole('button', { name: 'Method and details, ECC' }).click();
+    details = page.getByRole('dialog', { name: 'Method and details' });
+    await details.getByText('Input NOPE is not a characteristic of this plan').waitFor();
+    await details.getByLabel('Formula inputs').fill(eccInputs);
+    await details.getByRole('button', { name: 'Done' }).click();
+
+    // ── Save the limit change.
     await page.getByRole('button', { name: 'Save', exact: true }).click();
     await page.locator('.fui-ToastTitle', { hasText: 'Draft rev 1 saved' }).waitFor();
     expect(await page.getByRole('button', { name: 'Save', exact: true }).isDisabled()).toBe(true);

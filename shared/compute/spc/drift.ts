@@ -231,15 +231,32 @@ export interface JudgedPoint extends SeriesPoint {
   value: number;
   /** Range, s or moving range (null for p and for the first point of a run of individuals). */
   dispersion: number | null;
+  /** Shared by every point of a segment, except on p charts (limits per lot size). */
   limits: PointLimits | null;
   /** The frozen version that judged this point; null = trial limits from the unfrozen points. */
   limitVersion: number | null;
+  /** Index into Judgement.segments. */
+  segment: number;
   flags: PointFlag[];
+}
+
+/** Consecutive points judged against the same limits (the chart draws one set of lines per segment). */
+export interface Segment {
+  /** First and last point index, inclusive. */
+  from: number;
+  to: number;
+  limitVersion: number | null;
+  /** Centre and σ of individual measurements used; null when no limits could be computed. */
+  center: number | null;
+  sigmaWithin: number | null;
+  /** The segment's limits (p charts: ucl/lcl vary per point, so these are at the first point). */
+  limits: PointLimits | null;
 }
 
 export interface Judgement {
   chart: DriftChart;
   points: JudgedPoint[];
+  segments: Segment[];
   /** Trial (phase I) parameters from the points no frozen version covers, when computable. */
   trial: { center: number; sigma: number; count: number } | null;
   /** Why there are no trial limits, when there are points that need them. */
@@ -257,9 +274,13 @@ export function pointLabel(p: Pick<SeriesPoint, 'lotRef' | 'serial' | 'chunk'>):
 export function versionInForce(versions: readonly FrozenLimits[], decidedAt: string): FrozenLimits | null {
   const t = Date.parse(decidedAt);
   let best: FrozenLimits | null = null;
+  let bestAt = -Infinity;
   for (const v of versions) {
     const f = Date.parse(v.frozenAt);
-    if (f <= t && (!best || f > Date.parse(best.frozenAt) || (f === Date.parse(best.frozenAt) && v.version > best.version))) best = v;
+    if (f <= t && (f > bestAt || (f === bestAt && best !== null && v.version > best.version))) {
+      best = v;
+      bestAt = f;
+    }
   }
   return best;
 }
@@ -292,40 +313,68 @@ function relabel(message: string, label: string, chart: 'location' | 'dispersion
   return message.replace(/^point \d+/, label);
 }
 
-/** Judges one run of consecutive points that share the same limits. */
-function judgeRun(kind: DriftChart, run: readonly SeriesPoint[], known: KnownParameters, rules: RuleSetName): Omit<JudgedPoint, keyof SeriesPoint | 'index' | 'limitVersion'>[] {
+function judged(p: SeriesPoint, index: number, value: number, dispersion: number | null, limits: PointLimits | null, limitVersion: number | null, segment: number): JudgedPoint {
+  return {
+    lotId: p.lotId,
+    lotRef: p.lotRef,
+    lotSeq: p.lotSeq,
+    receivedAt: p.receivedAt,
+    decidedAt: p.decidedAt,
+    sampleId: p.sampleId,
+    serial: p.serial,
+    chunk: p.chunk,
+    subgroup: p.subgroup,
+    ...(p.defectives !== undefined ? { defectives: p.defectives, size: p.size } : {}),
+    index,
+    value,
+    dispersion,
+    limits,
+    limitVersion,
+    segment,
+    flags: [],
+  };
+}
+
+/** Judges one run of consecutive points that share the same limits, appending to `out`. */
+function judgeRun(kind: DriftChart, run: readonly SeriesPoint[], start: number, known: KnownParameters, rules: RuleSetName, version: number | null, segment: number, out: JudgedPoint[]): PointLimits {
   if (kind === 'i-mr' && run.length === 1) {
     // The chart function needs two values for a moving range; one point still gets its zone rules.
     const { D1, D2 } = knownSigmaRangeFactors(2);
     const v = run[0].subgroup[0];
-    const flags = evaluateRules([v], known.center, known.sigma, rules).map((s) => ({ rule: s.rule, chart: 'location' as const, message: relabel(s.message, pointLabel(run[0]), 'location', kind), description: RULE_DESCRIPTIONS[s.rule] }));
-    return [{ value: v, dispersion: null, limits: { center: known.center, ucl: known.center + 3 * known.sigma, lcl: known.center - 3 * known.sigma, sigma: known.sigma, dispersionCenter: d2Of(2) * known.sigma, dispersionUcl: D2 * known.sigma, dispersionLcl: D1 * known.sigma }, flags }];
+    const limits = { center: known.center, ucl: known.center + 3 * known.sigma, lcl: known.center - 3 * known.sigma, sigma: known.sigma, dispersionCenter: d2Of(2) * known.sigma, dispersionUcl: D2 * known.sigma, dispersionLcl: D1 * known.sigma };
+    const jp = judged(run[0], start, v, null, limits, version, segment);
+    for (const s of evaluateRules([v], known.center, known.sigma, rules)) jp.flags.push({ rule: s.rule, chart: 'location', message: relabel(s.message, pointLabel(run[0]), 'location', kind), description: RULE_DESCRIPTIONS[s.rule] });
+    out.push(jp);
+    return limits;
   }
   const ch = chartOf(kind, run, known);
-  const out = run.map((p, i) => {
-    let limits: PointLimits;
-    let dispersion: number | null = null;
-    if (ch.chart === 'p') {
-      limits = { center: ch.center, ucl: ch.ucl[i], lcl: ch.lcl[i], sigma: ch.sigma[i], dispersionCenter: null, dispersionUcl: null, dispersionLcl: null };
-    } else {
-      const base = { center: ch.center, ucl: ch.ucl, lcl: ch.lcl, sigma: ch.sigma };
-      if (ch.chart === 'xbar-r') {
-        dispersion = ch.ranges[i];
-        limits = { ...base, dispersionCenter: ch.rangeCenter, dispersionUcl: ch.rangeUcl, dispersionLcl: ch.rangeLcl };
-      } else if (ch.chart === 'xbar-s') {
-        dispersion = ch.sValues[i];
-        limits = { ...base, dispersionCenter: ch.sCenter, dispersionUcl: ch.sUcl, dispersionLcl: ch.sLcl };
-      } else {
-        dispersion = i > 0 ? ch.movingRanges[i - 1] : null;
-        limits = { ...base, dispersionCenter: ch.mrCenter, dispersionUcl: ch.mrUcl, dispersionLcl: ch.mrLcl };
-      }
+  const first = out.length;
+  let shared: PointLimits;
+  if (ch.chart === 'p') {
+    shared = { center: ch.center, ucl: ch.ucl[0], lcl: ch.lcl[0], sigma: ch.sigma[0], dispersionCenter: null, dispersionUcl: null, dispersionLcl: null };
+    for (let i = 0; i < run.length; i++) {
+      const limits = { center: ch.center, ucl: ch.ucl[i], lcl: ch.lcl[i], sigma: ch.sigma[i], dispersionCenter: null, dispersionUcl: null, dispersionLcl: null };
+      out.push(judged(run[i], start + i, ch.points[i], null, limits, version, segment));
     }
-    return { value: ch.points[i], dispersion, limits, flags: [] as PointFlag[] };
-  });
-  for (const s of chartSignals(ch, rules)) {
-    out[s.index].flags.push({ rule: s.rule, chart: s.chart, message: relabel(s.message, pointLabel(run[s.index]), s.chart, kind), description: RULE_DESCRIPTIONS[s.rule] });
+  } else {
+    const base = { center: ch.center, ucl: ch.ucl, lcl: ch.lcl, sigma: ch.sigma };
+    let disp: (i: number) => number | null;
+    if (ch.chart === 'xbar-r') {
+      shared = { ...base, dispersionCenter: ch.rangeCenter, dispersionUcl: ch.rangeUcl, dispersionLcl: ch.rangeLcl };
+      disp = (i) => ch.ranges[i];
+    } else if (ch.chart === 'xbar-s') {
+      shared = { ...base, dispersionCenter: ch.sCenter, dispersionUcl: ch.sUcl, dispersionLcl: ch.sLcl };
+      disp = (i) => ch.sValues[i];
+    } else {
+      shared = { ...base, dispersionCenter: ch.mrCenter, dispersionUcl: ch.mrUcl, dispersionLcl: ch.mrLcl };
+      disp = (i) => (i > 0 ? ch.movingRanges[i - 1] : null);
+    }
+    for (let i = 0; i < run.length; i++) out.push(judged(run[i], start + i, ch.points[i], disp(i), shared, version, segment));
   }
-  return out;
+  for (const s of chartSignals(ch, rules)) {
+    out[first + s.index].flags.push({ rule: s.rule, chart: s.chart, message: relabel(s.message, pointLabel(run[s.index]), s.chart, kind), description: RULE_DESCRIPTIONS[s.rule] });
+  }
+  return shared;
 }
 
 function plotted(series: Series, p: SeriesPoint): number {
@@ -344,7 +393,7 @@ function plotted(series: Series, p: SeriesPoint): number {
 export function judgeSeries(series: Series, versions: readonly FrozenLimits[], rules: RuleSetName): Judgement {
   if (!RULE_SETS[rules]) throw new ComputeError(`unknown rule set "${rules}"; use "western-electric" or "nelson"`, 'rules');
   const usable = versions.filter((v) => family(v.chart) === family(series.chart));
-  const assigned = series.points.map((p) => versionInForce(usable, p.decidedAt));
+  const assigned = series.points.map((p) => (usable.length ? versionInForce(usable, p.decidedAt) : null));
   const trialPts = series.points.filter((_, i) => assigned[i] === null);
   let trial: Judgement['trial'] = null;
   let trialNote: string | null = null;
@@ -359,6 +408,7 @@ export function judgeSeries(series: Series, versions: readonly FrozenLimits[], r
   }
 
   const points: JudgedPoint[] = [];
+  const segments: Segment[] = [];
   let start = 0;
   while (start < series.points.length) {
     const v = assigned[start];
@@ -366,14 +416,28 @@ export function judgeSeries(series: Series, versions: readonly FrozenLimits[], r
     while (end < series.points.length && assigned[end] === v) end++;
     const run = series.points.slice(start, end);
     const known = v ? { center: v.center, sigma: v.sigma } : trial ? { center: trial.center, sigma: trial.sigma } : null;
+    const seg = segments.length;
+    const version = v?.version ?? null;
     if (known && (series.chart === 'p' || known.sigma > 0)) {
-      judgeRun(series.chart, run, known, rules).forEach((j, k) => points.push({ ...run[k], ...j, index: start + k, limitVersion: v?.version ?? null }));
+      const limits = judgeRun(series.chart, run, start, known, rules, version, seg, points);
+      segments.push({ from: start, to: end - 1, limitVersion: version, center: known.center, sigmaWithin: known.sigma, limits });
     } else {
-      run.forEach((p, k) => points.push({ ...p, index: start + k, value: plotted(series, p), dispersion: null, limits: null, limitVersion: v?.version ?? null, flags: [] }));
+      run.forEach((p, k) => points.push(judged(p, start + k, plotted(series, p), null, null, version, seg)));
+      segments.push({ from: start, to: end - 1, limitVersion: version, center: null, sigmaWithin: null, limits: null });
     }
     start = end;
   }
-  return { chart: series.chart, points, trial, trialNote };
+  return { chart: series.chart, points, segments, trial, trialNote };
+}
+
+/** Which stored fields a characteristic's chart reads (the chart query fetches only those). */
+export function fieldsNeeded(c: Pick<DriftCharacteristic, 'kind' | 'layout' | 'readingsPerSample' | 'chartKind' | 'subgroupSize'>): { sampleId: boolean; value: boolean; values: boolean; conforming: boolean } {
+  if (c.chartKind === 'p' || c.kind === 'attribute') return { sampleId: false, value: false, values: false, conforming: true };
+  const g = c.subgroupSize;
+  if (c.chartKind === 'i-mr' || g === 1) return { sampleId: true, value: true, values: false, conforming: false };
+  if (g != null && g >= 2 && c.readingsPerSample >= 2 && c.readingsPerSample % g === 0 && c.layout === 'single') return { sampleId: true, value: false, values: true, conforming: false };
+  // Lot subgroups: only values (should every lot have one core, the individuals carry no sample id).
+  return { sampleId: false, value: true, values: false, conforming: false };
 }
 
 // ---------------------------------------------------------------------------------------------

@@ -9,3 +9,4 @@ export * from './lot';
 export * from './ncr';
 export * from './corrective-action';
 export * from './outbox';
+export * from './spc';

@@ -97,7 +97,12 @@ export const reading = pgTable(
     enteredAt: timestamp({ withTimezone: true }).notNull().defaultNow(),
     source: text({ enum: ['bench', 'import'] }).notNull().default('bench'),
   },
-  (t) => [unique('reading_sample_characteristic_uq').on(t.sampleId, t.characteristicCode), index('reading_lot_idx').on(t.lotId)],
+  (t) => [
+    unique('reading_sample_characteristic_uq').on(t.sampleId, t.characteristicCode),
+    index('reading_lot_idx').on(t.lotId),
+    // Drift watch charts read one characteristic across a supplier × part's lots.
+    index('reading_lot_code_idx').on(t.lotId, t.characteristicCode),
+  ],
 );
 
 /** A photo of a lot, optionally of one core and one characteristic. Stored re-encoded, metadata stripped. */

@@ -1,4 +1,4 @@
-import { Button, Table, TableBody, TableCell, TableHeader, TableRow, ToggleButton, makeStyles, tokens } from '@fluentui/react-components';
+import { Button, Table, TableBody, TableCell, TableHeader, TableRow, ToggleButton, makeStyles, mergeClasses, tokens } from '@fluentui/react-components';
 import { useState } from 'react';
 import { GAUGE_KIND_LABELS, GAUGE_KINDS, type Gauge, type GaugeKind } from '@shared/schemas/master-data';
 import { Page } from '../../components/page';
@@ -20,7 +20,7 @@ const useStyles = makeStyles({
   actions: { display: 'flex', gap: '6px', justifyContent: 'flex-end' },
   rowBtn: { minHeight: '36px' },
   nowrap: { whiteSpace: 'nowrap' },
-  desc: { minWidth: '180px' },
+  desc: { minWidth: '200px' },
   srOnly: { position: 'absolute', width: '1px', height: '1px', overflow: 'hidden', clip: 'rect(0 0 0 0)', whiteSpace: 'nowrap' },
 });
 
@@ -79,23 +79,23 @@ export function GaugesPage() {
                 <HeadCell>Range</HeadCell>
                 <SortHeader field="calibrationDueOn" sort={lp.sort} onSort={(sort) => setLp({ sort })}>Due on</SortHeader>
                 <HeadCell>Calibration</HeadCell>
-                <HeadCell>Status</HeadCell>
                 {canWrite ? <HeadCell><span className={s.srOnly}>Actions</span></HeadCell> : null}
               </TableRow>
             </TableHeader>
             <TableBody>
-              {items.length === 0 ? <TableRow><TableCell colSpan={canWrite ? 9 : 8}>No gauge matches these filters.</TableCell></TableRow> : null}
+              {items.length === 0 ? <TableRow><TableCell colSpan={canWrite ? 8 : 7}>No gauge matches these filters.</TableCell></TableRow> : null}
               {items.map((g) => (
                 <TableRow key={g.id} aria-label={`Gauge ${g.assetTag}`}>
-                  <TableCell className={`${s.tag} ${s.nowrap}`}>{g.assetTag}</TableCell>
+                  <TableCell className={mergeClasses(s.tag, s.nowrap)}>{g.assetTag}</TableCell>
                   <TableCell className={s.nowrap}>{GAUGE_KIND_LABELS[g.kind]}</TableCell>
                   <TableCell className={s.desc}>{g.description}</TableCell>
                   <TableCell className={s.num}>{g.resolution} {g.unit}</TableCell>
                   <TableCell className={s.num}>{range(g)}</TableCell>
                   <TableCell className={s.num}>{g.calibrationDueOn}</TableCell>
-                  <TableCell className={s.nowrap}><CalibrationPill gauge={g} /></TableCell>
                   <TableCell className={s.nowrap}>
-                    {g.status === 'in-service' ? <span>{GAUGE_STATUS_LABELS[g.status]}</span> : <StatusPill tone="neutral">{GAUGE_STATUS_LABELS[g.status]}</StatusPill>}
+                    <CalibrationPill gauge={g} />
+                    {/* In service is the normal case; only the exception is said. */}
+                    {g.status === 'out-of-service' ? <> <StatusPill tone="neutral">{GAUGE_STATUS_LABELS[g.status]}</StatusPill></> : null}
                   </TableCell>
                   {canWrite ? (
                     <TableCell className={s.nowrap}>

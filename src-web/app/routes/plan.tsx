@@ -2,7 +2,7 @@ import {
   Body1, Button, Caption1, MessageBar, MessageBarActions, MessageBarBody, MessageBarTitle, Subtitle2, Tab, TabList, Toast, ToastTitle, makeStyles, tokens, useToastController,
   Dialog, DialogSurface, DialogBody, DialogTitle, DialogContent, DialogActions,
 } from '@fluentui/react-components';
-import { useEffect, useMemo, useState } from 'react';
+import { useEffect, useMemo, useRef, useState } from 'react';
 import { Link, useBlocker, useNavigate, useParams, useSearchParams } from 'react-router-dom';
 import type { Plan } from '@shared/schemas/master-data';
 import { Page } from '../../components/page';
@@ -98,6 +98,7 @@ function PlanEditor({ plan, tab }: { plan: Plan; tab: 'characteristics' | 'chang
   };
 
   const save = async () => {
+    if (!dirty || update.isPending) return;
     setMessage(null);
     setServerErrors({});
     setAttempted(true);
@@ -113,6 +114,21 @@ function PlanEditor({ plan, tab }: { plan: Plan; tab: 'characteristics' | 'chang
       } else setMessage({ text: err instanceof Error ? err.message : 'Something went wrong' });
     }
   };
+
+  // Ctrl+S / ⌘S saves the draft, as in any editor an engineer already uses.
+  const saveRef = useRef(save);
+  saveRef.current = save;
+  useEffect(() => {
+    if (!editable) return;
+    const onKey = (e: KeyboardEvent) => {
+      if ((e.ctrlKey || e.metaKey) && e.key.toLowerCase() === 's') {
+        e.preventDefault();
+        void saveRef.current();
+      }
+    };
+    window.addEventListener('keydown', onKey);
+    return () => window.removeEventListener('keydown', onKey);
+  }, [editable]);
 
   const doRevise = async () => {
     setMessage(null);
@@ -239,7 +255,7 @@ function PlanEditor({ plan, tab }: { plan: Plan; tab: 'characteristics' | 'chang
             <section aria-label="Characteristics">
               <div className={s.charsHead}>
                 <Subtitle2 as="h2">Characteristics</Subtitle2>
-                {editable ? <Caption1>Enter, ↑ and ↓ move along a column. Method text and formula details open from each row.</Caption1> : null}
+                {editable ? <Caption1>Enter, ↑ and ↓ move along a column; Ctrl+S saves. Method text and formula details open from each row.</Caption1> : null}
               </div>
               {errors.characteristics ? <Body1 role="alert">{errors.characteristics}</Body1> : null}
               <CharacteristicsTable rows={draft.rows} readOnly={!editable} errors={errors} onRows={setRows} onDetails={setDetailsOf} />

@@ -16,7 +16,8 @@ const useStyles = makeStyles({
   touch: { minHeight: '44px' },
   code: { fontFamily: tokens.fontFamilyMonospace, fontWeight: 600, color: tokens.colorBrandForeground1, textDecoration: 'none', ':hover': { textDecoration: 'underline' } },
   muted: { color: tokens.colorNeutralForeground3 },
-  reason: { maxWidth: '32ch', overflow: 'hidden', textOverflow: 'ellipsis', whiteSpace: 'nowrap', display: 'block' },
+  reason: { maxWidth: '26ch', overflow: 'hidden', textOverflow: 'ellipsis', whiteSpace: 'nowrap', display: 'block' },
+  name: { minWidth: '170px' },
   nowrap: { whiteSpace: 'nowrap' },
 });
 
@@ -72,7 +73,7 @@ export function SuppliersPage() {
                   <TableCell className={s.nowrap}>
                     <Link className={s.code} to={{ pathname: paths.supplier(x.id), search: location.search }} aria-label={`${canWrite ? 'Edit' : 'Open'} supplier ${x.code}`}>{x.code}</Link>
                   </TableCell>
-                  <TableCell>{x.name}</TableCell>
+                  <TableCell className={s.name}>{x.name}</TableCell>
                   <TableCell className={s.nowrap}>
                     {x.contactEmails[0] ?? <span className={s.muted}>none on record</span>}
                     {x.contactEmails.length > 1 ? <Caption1 className={s.muted}> +{x.contactEmails.length - 1} more</Caption1> : null}

@@ -3,7 +3,8 @@
  * and leaves only when the server has stored it. Pure functions, so the rules are testable
  * without a browser; `use-reading-queue.ts` wires them to React and the network.
  */
-import type { ReadingInput } from '@shared/schemas/receiving';
+// Relative, not @shared: the unit tests (root tsconfig, no path alias) import this file too.
+import type { ReadingInput } from '../../../../shared/schemas/receiving';
 
 export interface QueuedReading {
   /** `${sampleId}|${characteristicCode}`: one entry per core × characteristic (the last write wins). */

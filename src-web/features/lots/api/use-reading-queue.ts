@@ -1,4 +1,4 @@
-import { useCallback, useEffect, useRef, useState } from 'react';
+import { useCallback, useEffect, useMemo, useRef, useState } from 'react';
 import { ApiError } from '../../../lib/api-client';
 import { putReadings } from './readings';
 import { isTransient, loadQueue, markRefused, removeSent, retryDelayMs, saveQueue, sendable, toInput, upsert, type QueuedReading } from './reading-queue';
@@ -123,10 +123,11 @@ export function useReadingQueue(lotId: string, opts: { enabled: boolean; onSaved
     };
   }, [enabled, flush]);
 
+  const refused = useMemo(() => items.filter((x) => x.refused), [items]);
   return {
     items,
     unsent: items.length,
-    refused: items.filter((x) => x.refused),
+    refused,
     phase,
     retryAt,
     lastError,

@@ -33,14 +33,14 @@ export const useSheetStyles = makeStyles({
     display: 'flex',
     alignItems: 'center',
     height: '44px',
-    minWidth: '104px',
+    minWidth: '94px',
     borderRadius: tokens.borderRadiusMedium,
     border: `1px solid ${tokens.colorNeutralStroke1}`,
     backgroundColor: tokens.colorNeutralBackground1,
     ':focus-within': { outline: `3px solid ${tokens.colorBrandStroke1}`, outlineOffset: '1px' },
   },
   input: {
-    width: '70px',
+    width: '60px',
     flexGrow: 1,
     height: '100%',
     border: 'none',
@@ -51,17 +51,18 @@ export const useSheetStyles = makeStyles({
     fontSize: '17px',
     fontVariantNumeric: 'tabular-nums',
     textAlign: 'right',
-    padding: '0 4px 0 8px',
+    padding: '0 8px',
     // Keep a focused cell clear of the sticky core column when the sheet scrolls sideways.
-    scrollMarginLeft: '168px',
+    scrollMarginLeft: '188px',
     scrollMarginTop: '96px',
   },
-  tag: { width: '32px', flexShrink: 0, textAlign: 'center', fontSize: tokens.fontSizeBase200, fontWeight: 700, textTransform: 'lowercase' },
-  computed: { justifyContent: 'flex-end', paddingLeft: '8px', backgroundColor: tokens.colorNeutralBackground3, borderStyle: 'dashed' },
+  tag: { width: '30px', flexShrink: 0, textAlign: 'center', fontSize: tokens.fontSizeBase200, fontWeight: 700, textTransform: 'lowercase' },
+  computed: { justifyContent: 'flex-end', paddingLeft: '8px', backgroundColor: tokens.colorNeutralBackground3, border: `1px dashed ${tokens.colorNeutralStroke1}` },
   computedValue: { fontSize: '16px', fontVariantNumeric: 'tabular-nums', fontWeight: 600 },
-  invalid: { borderColor: tokens.colorPaletteRedBorder2, borderWidth: '2px' },
-  refused: { borderColor: tokens.colorPaletteRedBorder2, borderWidth: '2px', borderStyle: 'dashed' },
+  invalid: { border: `2px solid ${tokens.colorPaletteRedBorder2}` },
+  refused: { border: `2px dashed ${tokens.colorPaletteRedBorder2}` },
   pf: { display: 'flex', gap: '6px' },
+  noteText: { display: 'block', maxWidth: '150px', marginTop: '4px', fontSize: tokens.fontSizeBase200, color: tokens.colorNeutralForeground2, overflowWrap: 'anywhere' },
   pfBtn: {
     minWidth: '66px',
     height: '44px',
@@ -73,7 +74,7 @@ export const useSheetStyles = makeStyles({
     fontSize: tokens.fontSizeBase300,
     fontWeight: 600,
     cursor: 'pointer',
-    scrollMarginLeft: '168px',
+    scrollMarginLeft: '188px',
     ':focus-visible': { outline: `3px solid ${tokens.colorBrandStroke1}`, outlineOffset: '1px' },
     ':disabled': { cursor: 'default', opacity: 0.8 },
   },
@@ -88,7 +89,7 @@ export const useSheetStyles = makeStyles({
     border: `2px solid ${tokens.colorNeutralStroke1}`,
     backgroundColor: tokens.colorNeutralBackground1,
     color: tokens.colorNeutralForeground1,
-    scrollMarginLeft: '168px',
+    scrollMarginLeft: '188px',
     ':focus-visible': { outline: `3px solid ${tokens.colorBrandStroke1}`, outlineOffset: '1px' },
   },
   core: {
@@ -101,14 +102,14 @@ export const useSheetStyles = makeStyles({
     padding: '6px 10px',
     textAlign: 'left',
     verticalAlign: 'top',
-    minWidth: '150px',
-    width: '150px',
+    minWidth: '170px',
+    width: '170px',
   },
-  coreName: { fontSize: tokens.fontSizeBase400, fontWeight: 700, display: 'block' },
+  coreName: { fontSize: tokens.fontSizeBase400, fontWeight: 700, marginRight: '8px', lineHeight: '36px' },
   standing: { fontSize: tokens.fontSizeBase200, fontWeight: 600, display: 'block' },
   photoBtn: {
-    marginTop: '4px',
     minHeight: '36px',
+    verticalAlign: 'top',
     padding: '0 10px',
     borderRadius: tokens.borderRadiusMedium,
     border: `1px solid ${tokens.colorNeutralStroke1}`,
@@ -165,14 +166,19 @@ export interface BenchRowProps {
   ev: Record<string, Evaluation>;
   /** Server refusals for this core: code → field → message. */
   refused: Record<string, Record<string, string>> | undefined;
-  standing: { left: number; out: number };
+  /** Characteristics of this core not judged yet, and those out, over the whole plan. */
+  left: number;
+  out: number;
   editable: boolean;
   nav: SheetNav;
   onText: (sampleId: string, code: string, index: number, text: string) => void;
   onPass: (sampleId: string, code: string, pass: boolean) => void;
   onNote: (sampleId: string, code: string, note: string) => void;
   onCommit: (sampleId: string, code: string) => void;
-  photo?: { count: number; progress?: number; onAdd: (files: File[], sampleId: string) => void };
+  /** Photos of this core so far; undefined hides the photo buttons. */
+  photoCount?: number;
+  photoProgress?: number;
+  onAddPhotos?: (files: File[], sampleId: string) => void;
   columns: number;
 }
 
@@ -183,7 +189,6 @@ export const BenchRow = memo(function BenchRow(p: BenchRowProps) {
   const { mode } = useThemeMode();
   const sc = statusColours[mode];
   const camera = useRef<HTMLInputElement>(null);
-  const files = useRef<HTMLInputElement>(null);
   const sid = p.sample.id;
   const core = `Core ${p.sample.serial}`;
   const messages: string[] = [];
@@ -258,7 +263,9 @@ export const BenchRow = memo(function BenchRow(p: BenchRowProps) {
               {on(false) ? '✕ ' : ''}Fail
             </button>
           </div>
-          {d?.pass === false ? (
+          {d?.pass === false && !p.editable ? (
+            <span className={s.noteText}>{d.note}</span>
+          ) : d?.pass === false ? (
             <input
               ref={nav.ref(noteId)}
               className={mergeClasses(s.note, st.needsNote || refused?.note ? s.invalid : undefined)}
@@ -287,7 +294,7 @@ export const BenchRow = memo(function BenchRow(p: BenchRowProps) {
       if (bad) messages.push(`${c.code} ${labels[i]}: “${d?.texts[i] ?? ''}” is not a number`);
       return (
         <td key={`${c.code}-${i}`} className={mergeClasses(s.td, i === 0 ? s.groupStart : undefined)}>
-          <div className={mergeClasses(s.cell, bad ? s.invalid : refused ? s.refused : undefined)} style={bad ? undefined : colours(v)}>
+          <div className={mergeClasses(s.cell, bad ? s.invalid : refused ? s.refused : undefined)} style={bad || refused ? undefined : colours(v)}>
             <input
               ref={p.nav.ref(id)}
               className={s.input}
@@ -303,7 +310,8 @@ export const BenchRow = memo(function BenchRow(p: BenchRowProps) {
               onFocus={(ev) => ev.target.select()}
               onKeyDown={(ev) => handleMoveKeys(ev, id, p.nav, commit)}
             />
-            <span className={s.tag} data-verdict={v ?? undefined}>{bad ? '?' : (v ?? '')}</span>
+            {/* Radii and heights are judged by their fit, in the result cell, not one by one. */}
+            {perReading || bad ? <span className={s.tag} data-verdict={v ?? undefined}>{bad ? '?' : (v ?? '')}</span> : null}
           </div>
         </td>
       );
@@ -322,30 +330,27 @@ export const BenchRow = memo(function BenchRow(p: BenchRowProps) {
     return out;
   });
 
-  const { left, out } = p.standing;
+  const { left, out } = p;
   const standing = out ? { text: `✕ ${out} out`, colour: sc.bad } : left ? { text: `${left} to do`, colour: undefined } : { text: '✓ all in', colour: sc.ok };
   const pick = (list: FileList | null) => {
-    if (list?.length && p.photo) p.photo.onAdd([...list], sid);
+    if (list?.length && p.onAddPhotos) p.onAddPhotos([...list], sid);
   };
   return (
     <>
       <tr aria-label={core}>
         <th scope="row" className={s.core}>
           <span className={s.coreName}>{core}</span>
-          <span className={s.standing} style={{ color: standing.colour }}>{standing.text}</span>
-          {p.photo ? (
+          {p.onAddPhotos ? (
             <>
-              <button type="button" className={mergeClasses(s.photoBtn, 'no-print')} tabIndex={-1} onClick={() => camera.current?.click()} aria-label={`Take a photo of ${core.toLowerCase()}`}>
-                Photo{p.photo.count ? ` (${p.photo.count})` : ''}
+              {/* capture opens the camera on a tablet; a desktop browser shows its file chooser instead. */}
+              <button type="button" className={mergeClasses(s.photoBtn, 'no-print')} tabIndex={-1} onClick={() => camera.current?.click()} aria-label={`Add photos of ${core.toLowerCase()}`}>
+                Photo{p.photoCount ? ` (${p.photoCount})` : ''}
               </button>
-              <button type="button" className={mergeClasses(s.photoBtn, 'no-print')} tabIndex={-1} onClick={() => files.current?.click()} aria-label={`Choose photo files of ${core.toLowerCase()}`} style={{ marginLeft: 4 }}>
-                Files
-              </button>
-              {p.photo.progress != null ? <Caption1 className={s.standing}>Uploading {Math.round(p.photo.progress * 100)} %</Caption1> : null}
-              <input ref={camera} className={s.hidden} type="file" accept="image/*" capture="environment" multiple aria-label={`Camera photo of ${core.toLowerCase()}`} onChange={(e) => { pick(e.target.files); e.target.value = ''; }} />
-              <input ref={files} className={s.hidden} type="file" accept="image/*" multiple aria-label={`Photos of ${core.toLowerCase()}`} onChange={(e) => { pick(e.target.files); e.target.value = ''; }} />
+              <input ref={camera} className={s.hidden} type="file" accept="image/*" capture="environment" multiple aria-label={`Photos of ${core.toLowerCase()}`} onChange={(e) => { pick(e.target.files); e.target.value = ''; }} />
             </>
           ) : null}
+          <span className={s.standing} style={{ color: standing.colour }}>{standing.text}</span>
+          {p.photoProgress != null ? <Caption1 className={s.standing}>Uploading {Math.round(p.photoProgress * 100)} %</Caption1> : null}
         </th>
         {cells}
       </tr>

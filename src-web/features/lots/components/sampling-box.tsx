@@ -3,11 +3,13 @@ import type { StoredSampling } from '@shared/schemas/receiving';
 import { StatusPill } from '../../../components/status-pill';
 
 const useStyles = makeStyles({
-  grid: { display: 'grid', gridTemplateColumns: 'repeat(auto-fill, minmax(92px, 1fr))', gap: '10px 14px', margin: 0 },
-  item: { display: 'flex', flexDirection: 'column', gap: '2px', margin: 0 },
-  term: { fontSize: tokens.fontSizeBase200, color: tokens.colorNeutralForeground3, fontWeight: 600, textTransform: 'uppercase', letterSpacing: '0.04em' },
-  value: { margin: 0, fontSize: tokens.fontSizeBase500, fontWeight: 600, fontVariantNumeric: 'tabular-nums', lineHeight: tokens.lineHeightBase500 },
-  foot: { display: 'flex', gap: '8px', alignItems: 'center', flexWrap: 'wrap', marginTop: '10px', color: tokens.colorNeutralForeground3 },
+  head: { display: 'flex', alignItems: 'baseline', gap: '8px', flexWrap: 'wrap', marginBottom: '10px' },
+  big: { fontSize: tokens.fontSizeHero700, fontWeight: 700, lineHeight: tokens.lineHeightHero700, fontVariantNumeric: 'tabular-nums' },
+  grid: { display: 'grid', gridTemplateColumns: 'repeat(3, minmax(0, 1fr))', gap: '8px 12px', margin: 0 },
+  item: { display: 'flex', flexDirection: 'column', gap: '0', margin: 0, minWidth: 0 },
+  term: { fontSize: tokens.fontSizeBase100, color: tokens.colorNeutralForeground3, fontWeight: 700, textTransform: 'uppercase', letterSpacing: '0.05em', whiteSpace: 'nowrap' },
+  value: { margin: 0, fontSize: tokens.fontSizeBase400, fontWeight: 600, fontVariantNumeric: 'tabular-nums' },
+  foot: { display: 'flex', gap: '8px', alignItems: 'center', flexWrap: 'wrap', marginTop: '12px', color: tokens.colorNeutralForeground3 },
 });
 
 export const SEVERITY_LABELS: Record<StoredSampling['severity'], string> = { normal: 'Normal', tightened: 'Tightened', reduced: 'Reduced' };
@@ -16,18 +18,17 @@ const SEVERITY_TONE = { normal: 'info', tightened: 'pending', reduced: 'ok' } as
 /** The stored sampling of a lot: what to pull from the pallet and what the sample may contain. */
 export function SamplingBox({ sampling, quantity }: { sampling: StoredSampling; quantity: number }) {
   const s = useStyles();
-  const items: [string, string][] = [
-    ['Sample', sampling.inspectAll ? `${sampling.sampleSize} (100 %)` : `${sampling.sampleSize} of ${quantity}`],
-    ['Ac', String(sampling.accept)],
-    ['Re', String(sampling.reject)],
-  ];
-  if (sampling.kind === 'aql') {
-    items.unshift(['Code letter', sampling.codeLetter ?? '—'], ['Plan letter', sampling.planLetter ?? '—']);
-    items.push(['AQL', sampling.aql != null ? String(sampling.aql) : '—'], ['Level', sampling.level ?? '—']);
-  }
+  const items: [string, string][] = [];
+  if (sampling.kind === 'aql') items.push(['Code letter', sampling.codeLetter ?? '—'], ['Plan letter', sampling.planLetter ?? '—']);
+  items.push(['Ac', String(sampling.accept)], ['Re', String(sampling.reject)]);
+  if (sampling.kind === 'aql') items.push(['AQL', sampling.aql != null ? String(sampling.aql) : '—'], ['Level', sampling.level ?? '—']);
   return (
-    <div>
-      <dl className={s.grid} aria-label="Sampling">
+    <div aria-label="Sampling" role="group">
+      <div className={s.head}>
+        <span className={s.big}>{sampling.sampleSize} of {quantity}{sampling.inspectAll ? ' · 100 %' : ''}</span>
+        <Caption1>cores to inspect</Caption1>
+      </div>
+      <dl className={s.grid}>
         {items.map(([k, v]) => (
           <div key={k} className={s.item}>
             <dt className={s.term}>{k}</dt>

@@ -3,8 +3,9 @@
  * into them, and whether a core's entry for it is complete. Judging stays in
  * shared/compute/evaluate.ts (the server's own code).
  */
-import type { Characteristic } from '@shared/schemas/master-data';
-import type { Evaluation } from '@shared/compute/evaluate';
+// Relative, not @shared: the unit tests (root tsconfig, no path alias) import this file too.
+import type { Characteristic } from '../../../../shared/schemas/master-data';
+import type { Evaluation } from '../../../../shared/compute/evaluate';
 
 /** What the inspector typed for one core × characteristic. */
 export interface CellDraft {
@@ -130,6 +131,17 @@ export function decimalsFor(c: Pick<SheetChar, 'lsl' | 'usl' | 'nominal'>): numb
   return Math.min(6, Math.max(places(c.lsl), places(c.usl), places(c.nominal)) + 1);
 }
 
+/**
+ * A stored number as it would have been typed: with at least the decimals the limits carry,
+ * so 150.200 comes back as 150.20 rather than 150.2 (the number itself is what was stored).
+ */
+export function asEntered(v: number, c: Pick<SheetChar, 'lsl' | 'usl' | 'nominal'>): string {
+  const text = String(v);
+  const have = (text.split('.')[1] ?? '').length;
+  const want = decimalsFor(c) - 1;
+  return have >= want || /e/i.test(text) ? text : v.toFixed(want);
+}
+
 export const formatValue = (v: number | null | undefined, c: Pick<SheetChar, 'lsl' | 'usl' | 'nominal'>) => (v == null || !Number.isFinite(v) ? '' : v.toFixed(decimalsFor(c)));
 
 /** "149.95 – 150.05 mm", "≤ 25 µm", "≥ 0.95" */
@@ -163,18 +175,21 @@ type ReadingLike = { sampleId: string; characteristicCode: string; values: numbe
  * (newer), then entries typed but not complete yet (newest). Derived values are never drafts.
  */
 export function initialDrafts(
-  chars: Pick<SheetChar, 'code' | 'kind'>[],
+  chars: Pick<SheetChar, 'code' | 'kind' | 'lsl' | 'usl' | 'nominal'>[],
   saved: ReadingLike[],
   unsent: ReadingLike[],
   typed: Record<string, CellDraft>,
 ): Record<string, Record<string, CellDraft>> {
-  const entered = new Set(chars.filter((c) => c.kind !== 'derived').map((c) => c.code));
+  const entered = new Map(chars.filter((c) => c.kind !== 'derived').map((c) => [c.code, c]));
   const out: Record<string, Record<string, CellDraft>> = {};
   const put = (sampleId: string, code: string, d: CellDraft) => {
     if (!entered.has(code)) return;
     out[sampleId] = { ...(out[sampleId] ?? {}), [code]: d };
   };
-  const fromReading = (r: ReadingLike): CellDraft => ({ texts: r.values.map(String), pass: r.pass, note: r.note ?? '' });
+  const fromReading = (r: ReadingLike): CellDraft => {
+    const c = entered.get(r.characteristicCode);
+    return { texts: r.values.map((v) => (c ? asEntered(v, c) : String(v))), pass: r.pass, note: r.note ?? '' };
+  };
   for (const r of saved) put(r.sampleId, r.characteristicCode, fromReading(r));
   for (const r of unsent) put(r.sampleId, r.characteristicCode, fromReading(r));
   for (const [key, d] of Object.entries(typed)) {

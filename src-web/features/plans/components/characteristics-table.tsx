@@ -16,7 +16,11 @@ const useStyles = makeStyles({
   tdRead: { padding: '8px 10px', whiteSpace: 'nowrap' },
   nameRead: { whiteSpace: 'normal', minWidth: '220px' },
   num: { textAlign: 'right' },
-  stickyA: { position: 'sticky', left: 0, zIndex: 1, backgroundColor: tokens.colorNeutralBackground1, width: '30px', textAlign: 'right', color: tokens.colorNeutralForeground3, paddingRight: '6px' },
+  // The first two columns stay in view when the table scrolls sideways; # is exactly 30 px wide so the code column can sit at left: 30px.
+  stickyA: {
+    position: 'sticky', left: 0, zIndex: 1, backgroundColor: tokens.colorNeutralBackground1, boxSizing: 'border-box', width: '30px', minWidth: '30px', maxWidth: '30px',
+    textAlign: 'right', color: tokens.colorNeutralForeground3, paddingLeft: 0, paddingRight: '6px',
+  },
   stickyB: { position: 'sticky', left: '30px', zIndex: 1, backgroundColor: tokens.colorNeutralBackground1, boxShadow: `1px 0 0 ${tokens.colorNeutralStroke2}` },
   stickyHeadA: { position: 'sticky', left: 0, zIndex: 2 },
   stickyHeadB: { position: 'sticky', left: '30px', zIndex: 2, boxShadow: `1px 0 0 ${tokens.colorNeutralStroke2}` },
@@ -27,6 +31,8 @@ const useStyles = makeStyles({
     ':disabled': { backgroundColor: tokens.colorNeutralBackgroundDisabled, color: tokens.colorNeutralForegroundDisabled, ...shorthands.borderColor(tokens.colorNeutralStrokeDisabled) },
   },
   numCell: { textAlign: 'right' },
+  na: { display: 'block', textAlign: 'center', color: tokens.colorNeutralForeground4, userSelect: 'none' },
+  naNum: { textAlign: 'right', paddingRight: '8px', color: tokens.colorNeutralForeground3 },
   codeCell: { fontFamily: tokens.fontFamilyMonospace, textTransform: 'uppercase', fontWeight: 600 },
   invalid: { ...shorthands.borderColor(tokens.colorPaletteRedBorder2), backgroundColor: tokens.colorPaletteRedBackground1, boxShadow: `inset 0 0 0 1px ${tokens.colorPaletteRedBorder2}` },
   check: { width: '20px', height: '20px', accentColor: tokens.colorBrandBackground, margin: '0 auto', display: 'block' },
@@ -66,7 +72,7 @@ export const COLUMNS: Col[] = [
   { field: 'angles', label: 'Angles', head: 'Angles', width: 58, type: 'num', applies: (r) => angleLayouts.has(r.layout) },
   { field: 'levels', label: 'Levels', head: 'Levels', width: 58, type: 'num', applies: (r) => r.layout === 'probed' },
   { field: 'readingsPerSample', label: 'Readings per sample', head: 'Readings', width: 66, type: 'num', applies: (r) => r.layout === 'single' },
-  { field: 'gaugeKind', label: 'Gauge kind', head: 'Gauge kind', width: 150, type: 'select', options: [{ value: '', label: '—' }, ...opt(GAUGE_KINDS, GAUGE_KIND_LABELS)] },
+  { field: 'gaugeKind', label: 'Gauge kind', head: 'Gauge kind', width: 176, type: 'select', options: [{ value: '', label: '—' }, ...opt(GAUGE_KINDS, GAUGE_KIND_LABELS)] },
   { field: 'severity', label: 'Severity', head: 'Severity', width: 92, type: 'select', options: opt(SEVERITY_CLASSES, SEVERITY_LABELS) },
   { field: 'chartKind', label: 'Chart', head: 'Chart', width: 80, type: 'select', options: opt(CHART_KINDS, CHART_LABELS) },
   { field: 'wearDriven', label: 'Wear-driven', head: 'Wear', width: 52, type: 'check' },
@@ -142,13 +148,19 @@ export function CharacteristicsTable({ rows, readOnly, errors, onRows, onDetails
     const applies = c.applies ? c.applies(r) : true;
     const label = `${c.label}, ${rowName(r, i)}`;
     const cls = mergeClasses(s.cell, c.type === 'num' && s.numCell, c.field === 'code' && s.codeCell, err && s.invalid);
+    // A field that means nothing for this row (angles of a single value, the unit of a pass/fail check) shows as a dash,
+    // and readings show the count the layout implies; they come back as inputs when the layout changes.
+    if (!applies && !err) {
+      const hint = c.field === 'readingsPerSample' ? readingsHint(r) : '';
+      return <span className={mergeClasses(s.na, hint && hint !== '—' && s.naNum)} title={`${c.label}: does not apply to this row`} aria-label={`${label}: ${hint && hint !== '—' ? hint : 'not applicable'}`}>{hint || '—'}</span>;
+    }
     const common = { id: cellId(i, c.field), 'aria-label': label, 'aria-invalid': err ? true : undefined, title: err ?? undefined };
     if (c.type === 'check') {
       return <input {...common} type="checkbox" className={s.check} checked={r.wearDriven} onChange={(e) => set(i, c.field, e.target.checked)} />;
     }
     if (c.type === 'select') {
       return (
-        <select {...common} className={cls} value={String(r[c.field])} disabled={!applies} onChange={(e) => set(i, c.field, e.target.value)}>
+        <select {...common} className={cls} value={String(r[c.field])} onChange={(e) => set(i, c.field, e.target.value)}>
           {c.options?.map((o) => <option key={o.value} value={o.value} title={o.title}>{o.label}</option>)}
         </select>
       );
@@ -161,10 +173,7 @@ export function CharacteristicsTable({ rows, readOnly, errors, onRows, onDetails
         inputMode={c.type === 'num' ? 'decimal' : undefined}
         autoComplete="off"
         spellCheck={c.field === 'name'}
-        // A field that does not apply shows empty (readings: the count the layout implies).
-        value={applies ? String(r[c.field]) : ''}
-        disabled={!applies}
-        placeholder={c.field === 'readingsPerSample' && !applies ? readingsHint(r) : undefined}
+        value={String(r[c.field])}
         title={err ?? (c.field === 'name' ? r.name : undefined)}
         onChange={(e) => set(i, c.field, e.target.value)}
         onKeyDown={onKey(i, c.field)}
@@ -228,12 +237,12 @@ export function CharacteristicsTable({ rows, readOnly, errors, onRows, onDetails
                       <Button
                         size="small"
                         appearance="subtle"
-                        className={mergeClasses(s.rowBtn, (r.method || detailErr) && s.marked)}
+                        className={mergeClasses(s.rowBtn, detailErr && s.marked, !r.method && s.muted)}
                         aria-label={`Method and details, ${rowName(r, i)}`}
                         title={r.method || 'No method text yet'}
                         onClick={() => onDetails(i)}
                       >
-                        {r.method ? 'Method' : readOnly ? '—' : 'Method'}
+                        {r.method ? 'Method' : readOnly ? '—' : '+ Method'}
                         {detailErr ? <span className={s.dot} aria-label="has errors">●</span> : null}
                       </Button>
                       {!readOnly ? (

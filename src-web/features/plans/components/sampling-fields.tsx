@@ -1,9 +1,12 @@
-import { Field, Input, Select, Textarea, makeStyles, tokens } from '@fluentui/react-components';
+import { Field, Input, Select, Textarea, makeStyles, mergeClasses, tokens } from '@fluentui/react-components';
 import { AQL_VALUES, INSPECTION_LEVELS } from '@shared/compute/sampling';
 import type { PlanDraft } from './plan-draft';
 
 const useStyles = makeStyles({
-  row: { display: 'grid', gridTemplateColumns: 'minmax(220px, 260px) minmax(140px, 170px) minmax(120px, 150px) minmax(260px, 1fr)', gap: '12px 16px', alignItems: 'start', '@media (max-width: 1000px)': { gridTemplateColumns: '1fr 1fr' } },
+  row: { display: 'flex', flexWrap: 'wrap', gap: '12px 16px', alignItems: 'flex-start' },
+  kind: { flex: '0 1 250px', minWidth: '200px' },
+  small: { flex: '0 1 150px', minWidth: '120px' },
+  notes: { flex: '1 1 260px', minWidth: '220px' },
   dl: { display: 'flex', flexWrap: 'wrap', gap: '8px 32px', margin: 0 },
   dt: { color: tokens.colorNeutralForeground3, fontSize: tokens.fontSizeBase200 },
   dd: { margin: 0, fontWeight: 600 },
@@ -29,13 +32,13 @@ export function SamplingFields({ draft, readOnly, errors, onChange }: { draft: P
         ) : (
           <div><dt className={s.dt}>Fixed sample size</dt><dd className={s.dd}>{draft.zeroSampleSize || '—'} cores</dd></div>
         )}
-        <div><dt className={s.dt}>Notes</dt><dd className={`${s.dd} ${s.note}`}>{draft.notes || '—'}</dd></div>
+        <div><dt className={s.dt}>Notes</dt><dd className={mergeClasses(s.dd, s.note)}>{draft.notes || '—'}</dd></div>
       </dl>
     );
   }
   return (
     <div className={s.row}>
-      <Field label="Sampling" {...st('samplingKind')}>
+      <Field className={s.kind} label="Sampling" {...st('samplingKind')}>
         <Select value={draft.samplingKind} onChange={(_, d) => onChange({ samplingKind: d.value as PlanDraft['samplingKind'] }, 'samplingKind')}>
           <option value="aql">{KIND_LABELS.aql}</option>
           <option value="zero-acceptance">{KIND_LABELS['zero-acceptance']}</option>
@@ -43,13 +46,13 @@ export function SamplingFields({ draft, readOnly, errors, onChange }: { draft: P
       </Field>
       {draft.samplingKind === 'aql' ? (
         <>
-          <Field label="Inspection level" {...st('inspectionLevel')}>
+          <Field className={s.small} label="Inspection level" {...st('inspectionLevel')}>
             <Select value={draft.inspectionLevel} onChange={(_, d) => onChange({ inspectionLevel: d.value }, 'inspectionLevel')}>
               <option value="">Choose…</option>
               {INSPECTION_LEVELS.map((l) => <option key={l} value={l}>{l}</option>)}
             </Select>
           </Field>
-          <Field label="AQL" {...st('aql')}>
+          <Field className={s.small} label="AQL" {...st('aql')}>
             <Select value={draft.aql} onChange={(_, d) => onChange({ aql: d.value }, 'aql')}>
               <option value="">Choose…</option>
               {AQL_VALUES.map((a) => <option key={a} value={String(a)}>{a}</option>)}
@@ -57,14 +60,11 @@ export function SamplingFields({ draft, readOnly, errors, onChange }: { draft: P
           </Field>
         </>
       ) : (
-        <>
-          <Field label="Fixed sample size (cores)" {...st('zeroSampleSize')}>
-            <Input inputMode="numeric" value={draft.zeroSampleSize} onChange={(_, d) => onChange({ zeroSampleSize: d.value }, 'zeroSampleSize')} />
-          </Field>
-          <span />
-        </>
+        <Field className={s.kind} label="Fixed sample size (cores)" hint="Accept on zero nonconforming" {...st('zeroSampleSize')}>
+          <Input inputMode="numeric" value={draft.zeroSampleSize} onChange={(_, d) => onChange({ zeroSampleSize: d.value }, 'zeroSampleSize')} />
+        </Field>
       )}
-      <Field label="Notes" {...st('notes')}>
+      <Field className={s.notes} label="Notes" {...st('notes')}>
         <Textarea rows={1} resize="vertical" value={draft.notes} onChange={(_, d) => onChange({ notes: d.value }, 'notes')} />
       </Field>
     </div>

@@ -1,4 +1,4 @@
-import { Body1, Caption1, MessageBar, MessageBarBody, makeStyles, tokens } from '@fluentui/react-components';
+import { Body1, Caption1, MessageBar, MessageBarBody, makeStyles, mergeClasses, tokens } from '@fluentui/react-components';
 import { useMemo, type ReactNode } from 'react';
 import { useWatch } from 'react-hook-form';
 import {
@@ -89,7 +89,7 @@ export function SupplierPanel({ mode, supplier, loading, error, onClose, onSaved
   } else if (mode === 'view') {
     body = (
       <dl className={s.dl}>
-        <dt className={s.dt}>Code</dt><dd className={`${s.dd} ${s.code}`}>{supplier.code}</dd>
+        <dt className={s.dt}>Code</dt><dd className={mergeClasses(s.dd, s.code)}>{supplier.code}</dd>
         <dt className={s.dt}>Name</dt><dd className={s.dd}>{supplier.name}</dd>
         <dt className={s.dt}>Contacts</dt><dd className={s.dd}>{supplier.contactEmails.map((e) => <div key={e}>{e}</div>)}</dd>
         <dt className={s.dt}>Approval</dt><dd className={s.dd}><ApprovalPill status={supplier.approvalStatus} /></dd>
