@@ -1,6 +1,9 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { BrowserContext, Page } from 'playwright-core';
-import { isLoopback, launchBrowser, screenshot, signIn, watchRequests } from '../support/browser';
+import fs from 'node:fs';
+import path from 'node:path';
+import sharp from 'sharp';
+import { ARTIFACTS, isLoopback, launchBrowser, screenshot, signIn, watchRequests } from '../support/browser';
 import { E2E_BASE_URL as BASE } from '../support/env';
 import { DEMO, signedIn, type Http } from '../support/http';
 import { makeGauge, makePart, makeSupplier } from '../support/factories';
@@ -102,6 +105,19 @@ describe('Drift watch', () => {
     await tip.first().waitFor();
     expect(await tip.first().textContent()).toMatch(/we\d|trend6/);
     await screenshot(page, 'drift-chart-burr');
+
+    // Exports: every point as CSV, the charts as one PNG drawn from their SVG.
+    const [csv] = await Promise.all([page.waitForEvent('download'), page.getByRole('button', { name: 'Export CSV' }).click()]);
+    const csvText = fs.readFileSync((await csv.path())!, 'utf8');
+    expect(csvText.split('\n')[0]).toBe('index,lot_ref,lot_id,received_at,core,part,value,range,unit,center,lcl,ucl,limit_version,rules,messages');
+    expect(csvText.trim().split('\n')).toHaveLength(1 + 30 * CORES);
+    const [png] = await Promise.all([page.waitForEvent('download'), page.getByRole('button', { name: 'Export PNG' }).click()]);
+    const pngFile = path.join(ARTIFACTS, 'drift-export.png');
+    await png.saveAs(pngFile);
+    const meta = await sharp(pngFile).metadata();
+    expect(meta.format).toBe('png');
+    expect(meta.width).toBeGreaterThan(1000);
+    expect(meta.height).toBeGreaterThan(600);
 
     await page.getByRole('button', { name: 'Freeze limits…' }).click();
     const dialog = page.getByRole('dialog', { name: 'Freeze control limits' });

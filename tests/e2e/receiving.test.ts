@@ -69,6 +69,9 @@ async function enter(page: Page, value: string, next: string | RegExp) {
 /** Chooses a gauge with the keyboard: focus its picker and type the start of its asset tag. */
 async function chooseGauge(page: Page, code: string, kind: string, tag: string) {
   const picker = page.getByLabel(`Gauge for ${code} (${kind})`);
+  // The list arrives after the sheet; the picker is disabled until then.
+  await picker.locator('option', { hasText: tag }).waitFor({ state: 'attached' });
+  await expect.poll(() => picker.isEnabled()).toBe(true);
   await picker.focus();
   await page.keyboard.type(tag);
   await expect.poll(async () => (await picker.locator('option:checked').textContent()) ?? '').toContain(tag);

@@ -60,6 +60,7 @@ function LimitsLine({ chart }: { chart: ChartResponse }) {
         {l.frozenByEmail ? ` by ${l.frozenByEmail}` : ''} from the {l.baseline.description}
         {l.excludedPoints.length ? `, ${l.excludedPoints.length} excluded (lots ${[...new Set(l.excludedPoints.map((p) => p.lotRef))].join(', ')})` : ''}: “{l.reason}”. Centre {fmt(l.center)}
         {l.ucl != null ? `, limits ${fmt(l.lcl)} – ${fmt(l.ucl)}` : ''}.
+        {chart.segments.some((g) => g.limitVersion === l.version) ? '' : ' It applies to lots decided from now on; the points shown were judged before it.'}
       </span>
     </span>
   );

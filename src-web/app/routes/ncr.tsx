@@ -11,7 +11,7 @@ import { paths } from '../../config/paths';
 import { ApiError } from '../../lib/api-client';
 import { useMe } from '../../features/auth/api/get-me';
 import { useNcr, useNcrTransition } from '../../features/ncrs/api/ncrs';
-import { NcrStatusPill, actionLabel, formatMoney, formatWhen } from '../../features/ncrs/components/ncr-status';
+import { NcrStatusPill, actionLabel, formatMoney, formatValue, formatWhen } from '../../features/ncrs/components/ncr-status';
 import { NcrPhotos } from '../../features/ncrs/components/ncr-photos';
 import { ReviewBoard } from '../../features/ncrs/components/review-board';
 import { IssueScarDialog } from '../../features/ncrs/components/issue-scar-dialog';
@@ -26,8 +26,9 @@ const useStyles = makeStyles({
   dt: { color: tokens.colorNeutralForeground3 },
   dd: { margin: 0, overflowWrap: 'anywhere' },
   vs: { display: 'grid', gridTemplateColumns: '1fr 1fr', gap: '16px', '@media (max-width: 700px)': { gridTemplateColumns: '1fr' } },
-  req: { whiteSpace: 'pre-wrap', margin: 0 },
-  found: { whiteSpace: 'pre-wrap', margin: 0, color: tokens.colorPaletteRedForeground1, fontWeight: 600 },
+  label: { display: 'block', color: tokens.colorNeutralForeground3, marginBottom: '2px' },
+  req: { display: 'block', whiteSpace: 'pre-wrap', margin: 0 },
+  found: { display: 'block', whiteSpace: 'pre-wrap', margin: 0, color: tokens.colorPaletteRedForeground1, fontWeight: 600 },
   codes: { display: 'flex', gap: '6px', flexWrap: 'wrap', marginTop: '12px' },
   code: { fontFamily: tokens.fontFamilyMonospace, fontWeight: 700, border: `1px solid ${tokens.colorNeutralStroke1}`, borderRadius: '4px', padding: '1px 6px' },
   section: { marginBottom: '28px' },
@@ -176,8 +177,8 @@ export function NcrPage() {
         <div className={s.card}>
           <h3 className={s.h3}>Requirement and what was found</h3>
           <div className={s.vs}>
-            <div><Caption1 className={s.muted}>Required</Caption1><Body1 as="p" className={s.req}>{n.requirement}</Body1></div>
-            <div><Caption1 className={s.muted}>Found</Caption1><Body1 as="p" className={s.found}>{n.found}</Body1></div>
+            <div><Caption1 className={s.label}>Required</Caption1><Body1 as="p" className={s.req}>{n.requirement}</Body1></div>
+            <div><Caption1 className={s.label}>Found</Caption1><Body1 as="p" className={s.found}>{n.found}</Body1></div>
           </div>
           <div className={s.codes} aria-label="Defect codes">{n.defectCodes.map((c) => <span key={c} className={s.code}>{c}</span>)}</div>
         </div>
@@ -196,8 +197,8 @@ export function NcrPage() {
                     <TableRow key={r.id}>
                       <TableCell>{r.serial ?? '—'}</TableCell>
                       <TableCell>{r.characteristicCode}</TableCell>
-                      <TableCell className={s.num}>{r.value ?? (r.pass == null ? '—' : r.pass ? 'pass' : 'fail')}</TableCell>
-                      <TableCell className={s.muted}>{r.values.join(', ') || r.note || ''}</TableCell>
+                      <TableCell className={s.num}>{r.value != null ? formatValue(r.value) : r.pass == null ? '—' : r.pass ? 'pass' : 'fail'}</TableCell>
+                      <TableCell className={s.muted}>{r.values.length > 1 ? r.values.map(formatValue).join(', ') : r.note || ''}</TableCell>
                       <TableCell>{r.conforming === false ? <span className={s.bad}>Out of tolerance</span> : r.conforming ? 'Within tolerance' : '—'}</TableCell>
                     </TableRow>
                   ))}

@@ -9,7 +9,7 @@ import { useListParams } from '../../lib/use-list-params';
 import { paths } from '../../config/paths';
 import { useMe } from '../../features/auth/api/get-me';
 import { useHeldLots, useNcrs } from '../../features/ncrs/api/ncrs';
-import { NcrStatusPill, formatDay } from '../../features/ncrs/components/ncr-status';
+import { NcrStatusPill, formatDay, formatValue } from '../../features/ncrs/components/ncr-status';
 import { RaiseNcrPanel } from '../../features/ncrs/components/raise-ncr-panel';
 import { DefectCodesSection } from '../../features/ncrs/components/defect-codes-section';
 
@@ -46,7 +46,7 @@ function HeldLots({ items, canRaise, onRaise }: { items: HeldLot[]; canRaise: bo
           {l.failures.length ? (
             <ul className={s.fails}>
               {l.failures.slice(0, 4).map((f) => (
-                <li key={f.readingId}><Caption1>Core {f.serial}: {f.name} {f.value ?? (f.pass === false ? 'failed' : '')} {f.unit ?? ''}</Caption1></li>
+                <li key={f.readingId}><Caption1>Core {f.serial}: {f.name} {f.value != null ? formatValue(f.value) : f.pass === false ? 'failed' : ''} {f.unit ?? ''}</Caption1></li>
               ))}
               {l.failures.length > 4 ? <li><Caption1>and {l.failures.length - 4} more</Caption1></li> : null}
             </ul>

@@ -145,8 +145,11 @@ export async function chartsPng(container: HTMLElement, title: string, colours: 
   const pad = 16;
   const titleH = 28;
   const sizes = svgs.map((s) => s.getBoundingClientRect());
+  // Each chart's caption (what is plotted, in which unit) goes above it in the image too.
+  const captions = svgs.map((s) => s.closest('[data-export="chart"]')?.querySelector('[data-caption]')?.textContent ?? '');
+  const captionH = 20;
   const width = Math.max(...sizes.map((r) => r.width)) + 2 * pad;
-  const height = sizes.reduce((a, r) => a + r.height + 8, 0) + titleH + 2 * pad;
+  const height = sizes.reduce((a, r) => a + r.height + 8 + captionH, 0) + titleH + 2 * pad;
   const canvas = document.createElement('canvas');
   canvas.width = Math.ceil(width * scale);
   canvas.height = Math.ceil(height * scale);
@@ -160,6 +163,10 @@ export async function chartsPng(container: HTMLElement, title: string, colours: 
   ctx.fillText(title, pad, pad + 14);
   let y = pad + titleH;
   for (let i = 0; i < svgs.length; i++) {
+    ctx.fillStyle = colours.text;
+    ctx.font = "600 12px 'Open Sans', system-ui, sans-serif";
+    ctx.fillText(captions[i], pad, y + 13);
+    y += captionH;
     const clone = svgs[i].cloneNode(true) as SVGSVGElement;
     clone.setAttribute('xmlns', 'http://www.w3.org/2000/svg');
     clone.setAttribute('width', String(sizes[i].width));

@@ -4,7 +4,7 @@
  */
 import { Caption1, makeStyles, tokens } from '@fluentui/react-components';
 import { useEffect, useMemo, useState } from 'react';
-import { Area, Brush, CartesianGrid, ComposedChart, Line, ResponsiveContainer, Scatter, Tooltip, XAxis, YAxis, type TooltipContentProps } from 'recharts';
+import { Area, Brush, CartesianGrid, ComposedChart, Line, ReferenceArea, ReferenceLine, ResponsiveContainer, Tooltip, XAxis, YAxis, useXAxisScale, useYAxisScale, type TooltipContentProps } from 'recharts';
 import type { ChartResponse } from '@shared/schemas/drift';
 import { chartColours } from '../../../theme/theme';
 import { useThemeMode } from '../../../theme/theme-mode';
@@ -12,7 +12,7 @@ import { buildRows, fmt, thin, type DrawRow } from './chart-data';
 
 const useStyles = makeStyles({
   wrap: { display: 'flex', flexDirection: 'column', gap: '6px' },
-  label: { color: tokens.colorNeutralForeground3, fontWeight: 600, letterSpacing: '0.02em', textTransform: 'uppercase', fontSize: '11px' },
+  label: { color: tokens.colorNeutralForeground2, fontWeight: 600, fontSize: tokens.fontSizeBase200 },
   tip: {
     backgroundColor: tokens.colorNeutralBackground1,
     border: `1px solid ${tokens.colorNeutralStroke1}`,
@@ -48,6 +48,9 @@ function FlagMark(props: { cx?: number; cy?: number; fill?: string }) {
   return <path d={`M${cx},${cy - r}L${cx + r},${cy}L${cx},${cy + r}L${cx - r},${cy}Z`} fill="none" stroke={fill} strokeWidth={2.2} />;
 }
 
+/** Rules spelled out in a tooltip; further ones are listed by id so the tooltip stays readable. */
+const TIP_FLAGS = 3;
+
 function PointTip({ active, payload, chart, unit }: TooltipContentProps & { chart: ChartResponse; unit: string }) {
   const s = useStyles();
   const row = (payload?.[0]?.payload ?? null) as DrawRow | null;
@@ -71,18 +74,61 @@ function PointTip({ active, payload, chart, unit }: TooltipContentProps & { char
           Limits {fmt(row.lcl)} – {fmt(row.ucl)} ({row.limitVersion === null ? 'trial' : `version ${row.limitVersion}`})
         </div>
       ) : null}
-      {(p.flags ?? []).map((f) => (
+      {(p.flags ?? []).slice(0, TIP_FLAGS).map((f) => (
         <div key={`${f.chart}-${f.rule}`} className={s.tipFlag}>
           <span className={s.tipRule}>{f.rule}</span> {f.description}
           <div className={s.tipMuted}>{f.message}</div>
         </div>
       ))}
+      {(p.flags?.length ?? 0) > TIP_FLAGS ? <div className={s.tipMuted}>and {(p.flags?.length ?? 0) - TIP_FLAGS} more: {(p.flags ?? []).slice(TIP_FLAGS).map((f) => f.rule).join(', ')}</div> : null}
     </div>
   );
 }
 
 export interface ControlChartsProps {
   chart: ChartResponse;
+}
+
+/** Flag markers drawn from the chart's own scales (no extra series, so the tooltip stays on the points). */
+function FlagLayer({ rows, field, colour, Mark }: { rows: readonly DrawRow[]; field: 'flag' | 'dFlag'; colour: string; Mark: typeof FlagMark }) {
+  const x = useXAxisScale();
+  const y = useYAxisScale();
+  if (!x || !y) return null;
+  return (
+    <g className="drift-flags" aria-hidden>
+      {rows.map((r) => {
+        const v = r[field];
+        return v === undefined ? null : <Mark key={r.x} cx={x(r.x)} cy={y(v)} fill={colour} />;
+      })}
+    </g>
+  );
+}
+
+interface Band {
+  x1: number;
+  x2: number;
+  limitVersion: number | null;
+  center: number;
+  ucl: number;
+  lcl: number;
+  sigma: number;
+  dCenter: number | null;
+  dUcl: number | null;
+  dLcl: number | null;
+}
+
+/** Limit segments over the drawn range; neighbouring segments meet half-way between their points. */
+function bandsOf(chart: ChartResponse, lo: number, hi: number): Band[] {
+  const out: Band[] = [];
+  for (const g of chart.segments) {
+    if (!g.limits || g.to < lo || g.from > hi) continue;
+    const x1 = Math.max(lo, g.from - 0.5);
+    const x2 = Math.min(hi, g.to + 0.5);
+    if (x2 <= x1 && !(lo === hi)) continue;
+    const l = g.limits;
+    out.push({ x1, x2, limitVersion: g.limitVersion, center: l.center, ucl: l.ucl, lcl: l.lcl, sigma: l.sigma, dCenter: l.dispersionCenter, dUcl: l.dispersionUcl, dLcl: l.dispersionLcl });
+  }
+  return out;
 }
 
 export default function ControlCharts({ chart }: ControlChartsProps) {
@@ -94,11 +140,14 @@ export default function ControlCharts({ chart }: ControlChartsProps) {
   useEffect(() => setWin([0, Math.max(0, rows.length - 1)]), [rows.length]);
   const visible = useMemo(() => rows.slice(win[0], win[1] + 1), [rows, win]);
   const drawn = useMemo(() => thin(visible), [visible]);
-  // Markers get their own data: only the flagged rows (never thinned away).
-  const flags = useMemo(() => drawn.filter((r) => r.flag !== undefined), [drawn]);
-  const dFlags = useMemo(() => drawn.filter((r) => r.dFlag !== undefined), [drawn]);
   const overview = useMemo(() => thin(rows, 500), [rows]);
   const thinned = drawn.length < visible.length;
+  const lo = drawn.length ? drawn[0].x : 0;
+  const hi = drawn.length ? drawn[drawn.length - 1].x : 0;
+  // Variables charts: limits are constant per segment, so each is one rectangle and three lines.
+  // p charts: limits follow each lot's size, so they are drawn point by point.
+  const perPoint = chart.chart === 'p';
+  const bands = useMemo(() => (perPoint ? [] : bandsOf(chart, lo, hi)), [chart, perPoint, lo, hi]);
   const unit = chart.characteristic.unit ?? '';
   const refAt = useMemo(() => new Map(rows.map((r) => [r.x, r.point.lotRef])), [rows]);
   const tickLot = (x: number) => (refAt.has(x) ? `lot ${refAt.get(x)}` : '');
@@ -106,44 +155,58 @@ export default function ControlCharts({ chart }: ControlChartsProps) {
   const dispersion = DISPERSION_NAME[chart.chart];
   const yTick = (v: number) => (chart.chart === 'p' ? `${fmt(v * 100, 1)} %` : fmt(v));
   const axis = { stroke: c.axis, fontSize: 11 };
-  const common = { isAnimationActive: false as const };
+  const common = { isAnimationActive: false as const, activeDot: false as const, dot: false as const };
   const tip = (props: TooltipContentProps) => <PointTip {...props} chart={chart} unit={unit} />;
+  const cursor = { stroke: c.axis, strokeDasharray: '3 3' };
+  const hLine = (x1: number, x2: number, y: number, colour: string, width: number, dash?: string, key?: string) => (
+    <ReferenceLine key={key} segment={[{ x: x1, y }, { x: x2, y }]} stroke={colour} strokeWidth={width} strokeDasharray={dash} ifOverflow="extendDomain" />
+  );
 
   return (
     <div className={s.wrap}>
       <div data-export="chart">
-        <Caption1 className={s.label}>{LOCATION_NAME[chart.chart]}{unit && chart.chart !== 'p' ? ` (${unit})` : ''}</Caption1>
+        <Caption1 className={s.label} data-caption>{LOCATION_NAME[chart.chart]}{unit && chart.chart !== 'p' ? ` (${unit})` : ''}</Caption1>
         <ResponsiveContainer width="100%" height={300}>
-          <ComposedChart data={drawn} margin={{ top: 8, right: 16, bottom: 4, left: 4 }}>
+          <ComposedChart data={drawn} margin={{ top: 8, right: 30, bottom: 4, left: 4 }}>
             <CartesianGrid stroke={c.grid} strokeDasharray="2 4" vertical={false} />
             <XAxis dataKey="x" type="number" domain={['dataMin', 'dataMax']} tickFormatter={tickLot} tick={axis} stroke={c.grid} minTickGap={28} />
             <YAxis domain={['auto', 'auto']} tickFormatter={yTick} tick={axis} stroke={c.grid} width={64} />
-            <Area dataKey="z3" type="stepAfter" stroke="none" fill={c.zoneA} fillOpacity={1} {...common} />
-            <Area dataKey="z2" type="stepAfter" stroke="none" fill={c.zoneB} fillOpacity={1} {...common} />
-            <Area dataKey="z1" type="stepAfter" stroke="none" fill={c.zoneC} fillOpacity={1} {...common} />
-            <Line dataKey="ucl" type="stepAfter" stroke={c.limit} strokeWidth={1.6} dot={false} {...common} name="UCL" />
-            <Line dataKey="lcl" type="stepAfter" stroke={c.limit} strokeWidth={1.6} dot={false} {...common} name="LCL" />
-            <Line dataKey="center" type="stepAfter" stroke={c.center} strokeWidth={1.2} strokeDasharray="6 3" dot={false} {...common} name="Centre" />
-            <Line dataKey="value" type="linear" stroke={c.line} strokeWidth={1.4} dot={dots} activeDot={{ r: 4 }} {...common} name="Value" />
-            <Scatter data={flags} dataKey="flag" fill={c.flag} shape={<FlagMark />} {...common} name="Flagged" />
-            <Tooltip content={tip} cursor={{ stroke: c.axis, strokeDasharray: '3 3' }} isAnimationActive={false} />
+            {bands.flatMap((b, i) => [
+              <ReferenceArea key={`a${i}`} x1={b.x1} x2={b.x2} y1={b.lcl} y2={b.ucl} fill={c.zoneA} fillOpacity={1} stroke="none" ifOverflow="extendDomain" />,
+              <ReferenceArea key={`b${i}`} x1={b.x1} x2={b.x2} y1={b.center - 2 * b.sigma} y2={b.center + 2 * b.sigma} fill={c.zoneB} fillOpacity={1} stroke="none" />,
+              <ReferenceArea key={`c${i}`} x1={b.x1} x2={b.x2} y1={b.center - b.sigma} y2={b.center + b.sigma} fill={c.zoneC} fillOpacity={1} stroke="none" />,
+              hLine(b.x1, b.x2, b.ucl, c.limit, 1.6, undefined, `u${i}`),
+              hLine(b.x1, b.x2, b.lcl, c.limit, 1.6, undefined, `l${i}`),
+              hLine(b.x1, b.x2, b.center, c.center, 1.2, '6 3', `m${i}`),
+            ])}
+            {perPoint ? <Area dataKey="z3" type="stepAfter" stroke="none" fill={c.zoneA} fillOpacity={1} {...common} /> : null}
+            {perPoint ? <Area dataKey="z2" type="stepAfter" stroke="none" fill={c.zoneB} fillOpacity={1} {...common} /> : null}
+            {perPoint ? <Area dataKey="z1" type="stepAfter" stroke="none" fill={c.zoneC} fillOpacity={1} {...common} /> : null}
+            {perPoint ? <Line dataKey="ucl" type="stepAfter" stroke={c.limit} strokeWidth={1.6} {...common} name="UCL" /> : null}
+            {perPoint ? <Line dataKey="lcl" type="stepAfter" stroke={c.limit} strokeWidth={1.6} {...common} name="LCL" /> : null}
+            {perPoint ? <Line dataKey="center" type="stepAfter" stroke={c.center} strokeWidth={1.2} strokeDasharray="6 3" {...common} name="Centre" /> : null}
+            <Line dataKey="value" type="linear" stroke={c.line} strokeWidth={1.4} isAnimationActive={false} dot={dots} activeDot={{ r: 4 }} name="Value" />
+            <FlagLayer rows={drawn} field="flag" colour={c.flag} Mark={FlagMark} />
+            <Tooltip content={tip} cursor={cursor} isAnimationActive={false} />
           </ComposedChart>
         </ResponsiveContainer>
       </div>
       {dispersion ? (
         <div data-export="chart">
-          <Caption1 className={s.label}>{dispersion}{unit ? ` (${unit})` : ''}</Caption1>
+          <Caption1 className={s.label} data-caption>{dispersion}{unit ? ` (${unit})` : ''}</Caption1>
           <ResponsiveContainer width="100%" height={160}>
-            <ComposedChart data={drawn} margin={{ top: 6, right: 16, bottom: 4, left: 4 }}>
+            <ComposedChart data={drawn} margin={{ top: 6, right: 30, bottom: 4, left: 4 }}>
               <CartesianGrid stroke={c.grid} strokeDasharray="2 4" vertical={false} />
               <XAxis dataKey="x" type="number" domain={['dataMin', 'dataMax']} tickFormatter={tickLot} tick={axis} stroke={c.grid} minTickGap={28} />
               <YAxis domain={[0, 'auto']} tickFormatter={(v: number) => fmt(v)} tick={axis} stroke={c.grid} width={64} />
-              <Line dataKey="dUcl" type="stepAfter" stroke={c.limit} strokeWidth={1.6} dot={false} {...common} name="UCL" />
-              <Line dataKey="dLcl" type="stepAfter" stroke={c.limit} strokeWidth={1.2} strokeDasharray="2 3" dot={false} {...common} name="LCL" />
-              <Line dataKey="dCenter" type="stepAfter" stroke={c.center} strokeWidth={1.2} strokeDasharray="6 3" dot={false} {...common} name="Centre" />
-              <Line dataKey="dispersion" type="linear" stroke={c.line} strokeWidth={1.2} dot={dots} connectNulls {...common} name="Dispersion" />
-              <Scatter data={dFlags} dataKey="dFlag" fill={c.flag} shape={<FlagMark />} {...common} name="Flagged" />
-              <Tooltip content={tip} cursor={{ stroke: c.axis, strokeDasharray: '3 3' }} isAnimationActive={false} />
+              {bands.flatMap((b, i) => [
+                b.dUcl != null ? hLine(b.x1, b.x2, b.dUcl, c.limit, 1.6, undefined, `u${i}`) : null,
+                b.dLcl != null && b.dLcl > 0 ? hLine(b.x1, b.x2, b.dLcl, c.limit, 1.2, '2 3', `l${i}`) : null,
+                b.dCenter != null ? hLine(b.x1, b.x2, b.dCenter, c.center, 1.2, '6 3', `m${i}`) : null,
+              ])}
+              <Line dataKey="dispersion" type="linear" stroke={c.line} strokeWidth={1.2} isAnimationActive={false} dot={dots} activeDot={{ r: 3.5 }} connectNulls name="Dispersion" />
+              <FlagLayer rows={drawn} field="dFlag" colour={c.flag} Mark={FlagMark} />
+              <Tooltip content={tip} cursor={cursor} isAnimationActive={false} />
             </ComposedChart>
           </ResponsiveContainer>
         </div>
@@ -151,11 +214,11 @@ export default function ControlCharts({ chart }: ControlChartsProps) {
       {rows.length > 40 ? (
         <div aria-label="History overview: drag the handles to choose the lots shown">
           <ResponsiveContainer width="100%" height={70}>
-            <ComposedChart data={overview} margin={{ top: 4, right: 16, bottom: 0, left: 68 }}>
+            <ComposedChart data={overview} margin={{ top: 4, right: 30, bottom: 0, left: 68 }}>
               <XAxis dataKey="x" type="number" domain={['dataMin', 'dataMax']} hide />
               <YAxis hide domain={['auto', 'auto']} />
-              <Line dataKey="value" stroke={c.line} strokeWidth={1} dot={false} {...common} />
-              <Scatter data={overview.filter((r) => r.flag !== undefined)} dataKey="flag" fill={c.flag} shape={<OverviewMark />} {...common} />
+              <Line dataKey="value" stroke={c.line} strokeWidth={1} {...common} />
+              <FlagLayer rows={overview} field="flag" colour={c.flag} Mark={OverviewMark} />
               <Brush
                 dataKey="x"
                 height={26}

@@ -4,7 +4,8 @@ import { useDefectCodes } from '../api/ncrs';
 
 const useStyles = makeStyles({
   grid: { display: 'grid', gridTemplateColumns: 'repeat(auto-fill, minmax(210px, 1fr))', gap: '2px 8px', border: `1px solid ${tokens.colorNeutralStroke2}`, borderRadius: tokens.borderRadiusMedium, padding: '6px 8px' },
-  code: { fontFamily: tokens.fontFamilyMonospace, fontWeight: 700, marginRight: '6px' },
+  label: { display: 'inline-flex', alignItems: 'baseline', gap: '6px' },
+  code: { fontFamily: tokens.fontFamilyMonospace, fontWeight: 700, fontSize: tokens.fontSizeBase200, minWidth: '5ch' },
   legend: { fontWeight: 600, padding: 0, marginBottom: '4px' },
   fieldset: { border: 'none', margin: 0, padding: 0, minWidth: 0 },
 });
@@ -27,7 +28,7 @@ export function DefectCodePicker({ name, label = 'Defect codes' }: { name: strin
             key={c.id}
             checked={value.includes(c.code)}
             onChange={(_, d) => toggle(c.code, !!d.checked)}
-            label={<span title={c.description ?? undefined}><span className={s.code}>{c.code}</span>{c.name}</span>}
+            label={<span className={s.label} title={c.description ?? undefined}><span className={s.code}>{c.code}</span><span>{c.name}</span></span>}
           />
         ))}
       </div>

@@ -1,17 +1,18 @@
-import { makeStaticStyles, makeStyles } from '@fluentui/react-components';
+import { makeStyles } from '@fluentui/react-components';
 import type { Ncr } from '@shared/schemas/ncr';
 import { ncrQrUrl } from '../api/ncrs';
 
-// A6 label stock (105 × 148 mm), no margins; the red must print even with "background graphics" off.
-const usePageStyles = makeStaticStyles(`
+// A6 label stock (105 × 148 mm), no margins; the red must print even with "background graphics"
+// off. A plain style element: the @page rule must reach the document as written.
+const PAGE_CSS = `
 @page { size: A6 portrait; margin: 0; }
 @media print {
   html, body { margin: 0 !important; padding: 0 !important; background: #fff !important; }
   .no-print { display: none !important; }
-  .hold-tag-sheet { padding: 0 !important; background: #fff !important; }
+  .hold-tag-sheet { padding: 0 !important; background: #fff !important; min-height: 0 !important; display: block !important; }
   .hold-tag { box-shadow: none !important; }
 }
-`);
+`;
 
 const RED = '#b3261e';
 const useStyles = makeStyles({
@@ -46,7 +47,6 @@ const useStyles = makeStyles({
 
 /** The red hold tag of an NCR, sized for A6 label stock, with a QR code that opens the NCR. */
 export function HoldTag({ ncr, url }: { ncr: Ncr; url: string }) {
-  usePageStyles();
   const s = useStyles();
   const rows: [string, string][] = [
     ['Part', ncr.partNumber ? `${ncr.partNumber} rev ${ncr.partRevision ?? ''}` : '—'],
@@ -58,6 +58,7 @@ export function HoldTag({ ncr, url }: { ncr: Ncr; url: string }) {
   ];
   return (
     <article className={`${s.tag} hold-tag`} aria-label={`Hold tag ${ncr.number}`}>
+      <style>{PAGE_CSS}</style>
       <div className={s.band}>HOLD — DO NOT USE</div>
       <div className={s.no}>{ncr.number}</div>
       <div className={s.title}>{ncr.title}</div>

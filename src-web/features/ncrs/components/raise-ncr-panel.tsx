@@ -10,6 +10,7 @@ import { useSuppliers } from '../../suppliers/api/suppliers';
 import { useParts } from '../../parts/api/parts';
 import { useCreateNcr, useDefectCodes } from '../api/ncrs';
 import { DefectCodePicker } from './defect-code-picker';
+import { formatValue } from './ncr-status';
 
 const useStyles = makeStyles({
   fields: { display: 'flex', flexDirection: 'column', gap: '14px' },
@@ -31,7 +32,6 @@ const baseSchema = z.object({
 });
 type RaiseValues = z.infer<typeof baseSchema>;
 
-const num = (v: number | null) => (v == null ? '' : String(v));
 
 /** What a held lot's failed readings say, as the NCR's first draft (the inspector edits it). */
 export function draftFromLot(l: HeldLot, knownCodes: string[]): RaiseValues {
@@ -43,7 +43,7 @@ export function draftFromLot(l: HeldLot, knownCodes: string[]): RaiseValues {
     const range = f.lsl != null && f.usl != null ? `${f.lsl}–${f.usl}` : f.usl != null ? `at most ${f.usl}` : f.lsl != null ? `at least ${f.lsl}` : 'pass';
     return `${f.name}: ${range}${f.unit && f.unit !== 'count' ? ` ${f.unit}` : ''}`;
   });
-  const found = chars.map(([, fs]) => `${fs[0].name}: ${fs.map((f) => `core ${f.serial} ${f.value != null ? `${num(f.value)}${fs[0].unit ? ` ${fs[0].unit}` : ''}` : f.pass === false ? `failed${f.note ? ` (${f.note})` : ''}` : ''}`).join(', ')}`);
+  const found = chars.map(([, fs]) => `${fs[0].name}: ${fs.map((f) => `core ${f.serial} ${f.value != null ? `${formatValue(f.value)}${fs[0].unit ? ` ${fs[0].unit}` : ''}` : f.pass === false ? `failed${f.note ? ` (${f.note})` : ''}` : ''}`).join(', ')}`);
   return {
     title: chars.length ? `${chars.map(([, fs]) => fs[0].name).join(', ')} out of tolerance` : 'Lot rejected at receiving',
     requirement: limits.join('\n') || 'As the drawing and inspection plan require',
@@ -85,7 +85,7 @@ export function RaiseNcrPanel({ open, lot, onClose, onCreated }: { open: boolean
           {lot.failures.length ? (
             <ul className={s.fail}>
               {lot.failures.slice(0, 8).map((f) => (
-                <li key={f.readingId}><Caption1>Core {f.serial}: {f.name} {f.value ?? (f.pass === false ? 'failed' : '')} {f.unit ?? ''}</Caption1></li>
+                <li key={f.readingId}><Caption1>Core {f.serial}: {f.name} {f.value != null ? formatValue(f.value) : f.pass === false ? 'failed' : ''} {f.unit ?? ''}</Caption1></li>
               ))}
             </ul>
           ) : null}
