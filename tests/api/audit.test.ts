@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { startTestApp, type TestApp } from '../support/test-app';
-import { DEMO, Http, signedIn } from '../support/http';
+import { DEMO, type Http, signedIn } from '../support/http';
 import { makeSupplier } from '../support/factories';
 
 let t: TestApp;

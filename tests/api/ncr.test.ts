@@ -314,7 +314,7 @@ describe('hold tag', () => {
     expect(html).toContain(`#${l.ref}`);
     expect(html).toContain('80 cores');
     expect(html).toContain(n.raisedAt.slice(0, 10));
-    expect(html).toContain('size: A6');
+    expect(html).toContain('size: 105mm 148mm'); // A6 (ISO 216), named by its size: Chromium knows no "A6" keyword
     expect(html).toMatch(/<svg[^>]*viewBox/);
     expect(html).toContain(`${t.config.PUBLIC_URL}/nonconformances/${n.id}`);
     expect(html).not.toContain('<script>alert(1)</script>');

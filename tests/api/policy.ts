@@ -100,5 +100,9 @@ export const POLICY: Record<string, Rule> = {
   'GET /api/exports/audit-events.csv': { allow: RECORD_READ },
   'GET /api/exports/lots/{id}/report.pdf': { allow: RECORD_READ },
 
+  'GET /api/scorecards': { allow: ['engineer', 'auditor', 'admin', 'supplier'], supplier: 'own' },
+  'GET /api/scorecards/{supplierId}': { allow: ['engineer', 'auditor', 'admin', 'supplier'], supplier: 'own' },
+  'GET /api/dashboard': { allow: ALL, supplier: 'own' },
+
   'GET /api/dev/mailbox': { allow: ALL, supplier: 'own' },
 };

@@ -2,7 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { eq } from 'drizzle-orm';
 import sharp from 'sharp';
 import { startTestApp, type TestApp } from '../support/test-app';
-import { DEMO, Http, signedIn } from '../support/http';
+import { DEMO, type Http, signedIn } from '../support/http';
 import { makeGauge, makePart, makeSupplier, simpleCharacteristic } from '../support/factories';
 import { lot, reading } from '../../src-api/db/schema';
 

@@ -121,7 +121,7 @@ describe('issuing a corrective action from an NCR', () => {
     const due = Object.fromEntries(ca.steps.map((s: { step: string; dueOn: string }) => [s.step, s.dueOn]));
     const containment = addWorkingDays(today(), 1); // common practice: containment 24 h
     const rootCause = addWorkingDays(today(), 10); // common practice: root cause and plan in 10 working days
-    const closure = addCalendarDays(today(), 45); // within the common 30–60 days
+    const closure = addWorkingDays(addCalendarDays(today(), 45), 0); // within the common 30–60 days, on a working day
     expect(due).toEqual({ D1: containment, D2: containment, D3: containment, D4: rootCause, D5: rootCause, D6: closure, D7: closure, D8: closure });
     expect(ca.steps.map((s: { status: string }) => s.status)).toEqual(['open', 'open', 'open', 'locked', 'locked', 'locked', 'locked', 'locked']);
     expect(ca.recipients).toContain(DEMO.supplierNorthgate);
@@ -160,7 +160,8 @@ describe('issuing a corrective action from an NCR', () => {
     // 2026-01-02 is a Friday (ISO 8601 calendar).
     expect(svc.dueDates('2026-01-02')).toEqual({ containment: '2026-01-05', rootCause: '2026-01-16', closure: '2026-02-16' });
     const custom = new CorrectiveActionsService(t.db, { ...t.config, SCAR_CONTAINMENT_WORKING_DAYS: 2, SCAR_ROOT_CAUSE_WORKING_DAYS: 5, SCAR_CLOSURE_DAYS: 30 }, null as never, null as never);
-    expect(custom.dueDates('2026-01-02')).toEqual({ containment: '2026-01-06', rootCause: '2026-01-09', closure: '2026-02-01' });
+    // 30 days after 2 January is Sunday 1 February: a closure date moves to the next working day.
+    expect(custom.dueDates('2026-01-02')).toEqual({ containment: '2026-01-06', rootCause: '2026-01-09', closure: '2026-02-02' });
   });
 });
 

@@ -3,7 +3,7 @@ import { and, asc, eq } from 'drizzle-orm';
 import { startTestApp, type TestApp } from '../support/test-app';
 import { DEMO, Http, signedIn } from '../support/http';
 import { makeGauge, makePart, makeSupplier, simpleCharacteristic } from '../support/factories';
-import { auditEvent, driftSignal, lot, lotSample, reading } from '../../src-api/db/schema';
+import { auditEvent, driftSignal, lot, lotSample, reading, supplierNotice } from '../../src-api/db/schema';
 
 let t: TestApp;
 let eng: Http;
@@ -266,6 +266,17 @@ describe('a drifting burr series', () => {
     expect(fc.lotsToLimit).toBeCloseTo((USL - line.intercept) / line.slope - 24, 6); // where the line meets the USL, counted from the last lot
     expect(fc.lotsToLimitLower).toBeLessThan(fc.lotsToLimit); // the prediction bound reaches the limit sooner
     expect(fc.lotsToLimitLower).toBeGreaterThanOrEqual(0);
+    // About 46 µm and +2.2 µm a lot against 50 µm: fewer than 5 lots left, so the die is due for service.
+    expect(fc.serviceDue).toBe(true);
+    expect(fc.serviceLots).toBe(5);
+  });
+
+  it('puts a die-service notice on the supplier’s desk once, when the forecast first falls below the threshold', async () => {
+    const notices = await t.db.select().from(supplierNotice).where(eq(supplierNotice.supplierId, supplierId));
+    expect(notices).toHaveLength(1);
+    expect(notices[0]).toMatchObject({ kind: 'die-service-due', characteristicCode: 'BURR', partId });
+    const [ev] = await t.db.select().from(auditEvent).where(and(eq(auditEvent.action, 'spc.die_service_due'), eq(auditEvent.entityId, `${supplierId}:${partId}:BURR`)));
+    expect(ev).toBeTruthy();
   });
 
   it('shows the chart on Drift watch with its status, open signals and lots to limit', async () => {
@@ -277,7 +288,7 @@ describe('a drifting burr series', () => {
     expect(burr.openSignals).toBeGreaterThan(0);
     const chart = await chartOf(insp, supplierId, partId);
     expect(burr.lotsToLimit).toBeCloseTo(chart.body.forecast.lotsToLimit, 9);
-    expect(burr.status).toBe(chart.body.forecast.serviceDue ? 'die-service-due' : 'signal');
+    expect(burr.status).toBe('die-service-due');
     expect(rust).toMatchObject({ chart: 'p', wearDriven: false });
     expect(rust.lotsToLimit).toBeUndefined();
   });
