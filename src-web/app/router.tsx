@@ -10,13 +10,6 @@ import { HomePage } from './routes/home';
 import { NotFoundPage } from './routes/not-found';
 import { ArrivesSoon } from './routes/arrives-soon';
 import { RouteErrorBoundary } from './routes/error-boundary';
-import { AdminPage } from './routes/admin';
-import { MailboxPage } from './routes/mailbox';
-import { PlansPartsPage } from './routes/plans-parts';
-import { PartPage } from './routes/part';
-import { PlanPage } from './routes/plan';
-import { SuppliersPage } from './routes/suppliers';
-import { GaugesPage } from './routes/gauges';
 
 /** Signed-in area: go to sign-in (and come back) when there is no session. */
 async function requireUser({ request }: LoaderFunctionArgs): Promise<SessionUser> {
@@ -49,7 +42,7 @@ function Home() {
 }
 
 // Pages that later work fills in; each shows an honest empty state until then.
-const built = new Set<string>([paths.admin, paths.plans, paths.suppliers, paths.gauges, paths.dock, paths.lots, paths.ledger, paths.drift, paths.ncrs, paths.scars, paths.supplierDesk]);
+const built = new Set<string>([paths.admin, paths.plans, paths.suppliers, paths.gauges, paths.dock, paths.lots, paths.ledger, paths.drift, paths.ncrs, paths.scars, paths.supplierDesk, paths.calculators, paths.scorecards]);
 const placeholders = NAV.filter((n) => !built.has(n.to)).map((n) => ({ path: n.to, element: <ArrivesSoon to={n.to} /> }));
 
 export const router = createBrowserRouter([
@@ -65,14 +58,15 @@ export const router = createBrowserRouter([
     children: [
       { errorElement: <RouteErrorBoundary />, children: [
         { index: true, element: <Home />, loader: requireUser },
-        { path: paths.admin, element: <AdminPage /> },
-        { path: paths.mailbox, element: <MailboxPage /> },
-        { path: paths.plans, element: <PlansPartsPage /> },
-        { path: `${paths.plans}/parts/:id`, element: <PartPage /> },
-        { path: `${paths.plans}/plans/:id/:tab?`, element: <PlanPage /> },
+        { path: paths.admin, lazy: async () => ({ Component: (await import('./routes/admin')).AdminPage }) },
+        { path: paths.mailbox, lazy: async () => ({ Component: (await import('./routes/mailbox')).MailboxPage }) },
+        // Master data loads on first visit too: the first download stays small for the dock.
+        { path: paths.plans, lazy: async () => ({ Component: (await import('./routes/plans-parts')).PlansPartsPage }) },
+        { path: `${paths.plans}/parts/:id`, lazy: async () => ({ Component: (await import('./routes/part')).PartPage }) },
+        { path: `${paths.plans}/plans/:id/:tab?`, lazy: async () => ({ Component: (await import('./routes/plan')).PlanPage }) },
         // One route with an optional id, so opening a supplier's panel keeps the list mounted.
-        { path: `${paths.suppliers}/:id?`, element: <SuppliersPage /> },
-        { path: paths.gauges, element: <GaugesPage /> },
+        { path: `${paths.suppliers}/:id?`, lazy: async () => ({ Component: (await import('./routes/suppliers')).SuppliersPage }) },
+        { path: paths.gauges, lazy: async () => ({ Component: (await import('./routes/gauges')).GaugesPage }) },
         // The History ledger loads on first visit (auditors, engineers and admins only).
         { path: paths.ledger, lazy: async () => ({ Component: (await import('./routes/ledger')).LedgerPage }) },
         { path: paths.ledgerLot(':id'), lazy: async () => ({ Component: (await import('./routes/ledger-lot')).LedgerLotPage }) },
@@ -91,6 +85,10 @@ export const router = createBrowserRouter([
         { path: paths.supplierDesk, lazy: async () => ({ Component: (await import('./routes/supplier-desk')).SupplierDeskPage }) },
         { path: paths.deskScar(':id'), lazy: async () => ({ Component: (await import('./routes/desk-scar')).DeskScarPage }) },
         { path: paths.deskNcr(':id'), lazy: async () => ({ Component: (await import('./routes/desk-ncr')).DeskNcrPage }) },
+        // Scorecards load on first visit; their trend charts load recharts only when drawn.
+        { path: paths.scorecards, lazy: async () => ({ Component: (await import('./routes/scorecards')).ScorecardsPage }) },
+        // The calculators load on first visit, with the geometry and steel maths they run.
+        { path: paths.calculators, lazy: async () => ({ Component: (await import('./routes/calculators')).CalculatorsPage }) },
         ...placeholders,
         { path: '*', element: <NotFoundPage /> },
       ] },
