@@ -26,6 +26,8 @@ import { MailModule } from './mail/mail.module';
 import { NcrsModule } from './ncrs/ncrs.module';
 import { CorrectiveActionsModule } from './corrective-actions/corrective-actions.module';
 import { SupplierDeskModule } from './supplier-desk/supplier-desk.module';
+import { ScorecardsModule } from './scorecards/scorecards.module';
+import { DashboardModule } from './dashboard/dashboard.module';
 
 @Module({})
 export class AppModule {
@@ -67,6 +69,8 @@ export class AppModule {
         NcrsModule,
         CorrectiveActionsModule,
         SupplierDeskModule,
+        ScorecardsModule,
+        DashboardModule,
         ...(cfg.MAIL_CAPTURE_URL && cfg.NODE_ENV !== 'production' ? [DevModule] : []),
       ],
       controllers: [HealthController],

@@ -240,7 +240,7 @@ export const eSignatureSchema = z.object({
 });
 export type ESignature = z.infer<typeof eSignatureSchema>;
 
-export const historyEntrySchema = z.object({ at: z.string(), action: z.string(), actorEmail: z.string().nullable(), reason: z.string().nullable() });
+export const historyEntrySchema = z.object({ at: z.string(), action: z.string(), actorEmail: z.string().nullable(), reason: z.string().nullable(), detail: z.string().nullable() });
 
 export const ncrSchema = ncrSummarySchema.extend({
   requirement: z.string(),
@@ -298,5 +298,7 @@ export const heldLotSchema = z.object({
   decisionComment: z.string().nullable(),
   nonconformingCount: z.number().nullable(),
   failures: z.array(z.object({ readingId: z.string(), sampleId: z.string(), serial: z.number(), characteristicCode: z.string(), name: z.string(), value: z.number().nullable(), unit: z.string().nullable(), lsl: z.number().nullable(), usl: z.number().nullable(), pass: z.boolean().nullable(), note: z.string().nullable() })),
+  /** The lot's photos, linked to the NCR when it is raised from here. */
+  photoIds: z.array(z.string()),
 });
 export type HeldLot = z.infer<typeof heldLotSchema>;

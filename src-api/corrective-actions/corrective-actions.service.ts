@@ -28,6 +28,12 @@ const DONE_STEP = ['submitted', 'accepted'] as const;
 
 type StepRow = CorrectiveActionStepRow;
 
+/** The step an audit event concerns, when it concerns one. */
+const stepOfAudit = (after: unknown): string | null => {
+  const step = (after as { step?: unknown } | null)?.step;
+  return typeof step === 'string' ? step : null;
+};
+
 export interface DueDates {
   containment: string;
   rootCause: string;
@@ -47,12 +53,15 @@ export class CorrectiveActionsService {
     return user.role === 'supplier' ? eq(correctiveAction.supplierId, user.supplierId ?? NO_SUPPLIER) : undefined;
   }
 
-  /** Response times from the day of issue (config: containment and root cause in working days, closure in calendar days). */
+  /**
+   * Response times from the day of issue (config: containment and root cause in working days,
+   * closure in calendar days, moved off a weekend to the next working day).
+   */
   dueDates(issuedOn: string): DueDates {
     return {
       containment: addWorkingDays(issuedOn, this.cfg.SCAR_CONTAINMENT_WORKING_DAYS),
       rootCause: addWorkingDays(issuedOn, this.cfg.SCAR_ROOT_CAUSE_WORKING_DAYS),
-      closure: addCalendarDays(issuedOn, this.cfg.SCAR_CLOSURE_DAYS),
+      closure: addWorkingDays(addCalendarDays(issuedOn, this.cfg.SCAR_CLOSURE_DAYS), 0),
     };
   }
 
@@ -133,7 +142,7 @@ export class CorrectiveActionsService {
       ca.verifyLots.length ? tx.select({ id: lot.id, ref: lot.ref }).from(lot).where(inArray(lot.id, ca.verifyLots.map((v) => v.lotId))) : Promise.resolve([]),
       ca.recurrenceNcrId ? tx.select({ number: ncr.number }).from(ncr).where(eq(ncr.id, ca.recurrenceNcrId)).then((x) => x[0]) : Promise.resolve(undefined),
       internal
-        ? tx.select({ at: auditEvent.at, action: auditEvent.action, actorEmail: auditEvent.actorEmail, reason: auditEvent.reason }).from(auditEvent).where(and(eq(auditEvent.entity, 'corrective_action'), eq(auditEvent.entityId, id))).orderBy(asc(auditEvent.id))
+        ? tx.select({ at: auditEvent.at, action: auditEvent.action, actorEmail: auditEvent.actorEmail, reason: auditEvent.reason, after: auditEvent.after }).from(auditEvent).where(and(eq(auditEvent.entity, 'corrective_action'), eq(auditEvent.entityId, id))).orderBy(asc(auditEvent.id))
         : Promise.resolve(null),
     ]);
     const refs = new Map(lots.map((l) => [l.id, l.ref]));
@@ -170,7 +179,7 @@ export class CorrectiveActionsService {
         recurrence: ca.recurrenceAt ? { lotId: ca.recurrenceLotId, ncrId: ca.recurrenceNcrId, ncrNumber: recurrence?.number ?? null, at: ca.recurrenceAt.toISOString() } : null,
       },
       mail: internal ? await this.outbox.forEntity(id) : null,
-      history: history ? history.map((h) => ({ at: h.at.toISOString(), action: h.action, actorEmail: h.actorEmail, reason: h.reason })) : null,
+      history: history ? history.map((h) => ({ at: h.at.toISOString(), action: h.action, actorEmail: h.actorEmail, reason: h.reason, detail: stepOfAudit(h.after) })) : null,
     };
   }
 

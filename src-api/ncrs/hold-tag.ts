@@ -36,7 +36,7 @@ export async function renderHoldTag(d: HoldTagData, url: string): Promise<string
   return `<!doctype html>
 <html lang="en"><head><meta charset="utf-8"><title>Hold tag ${escapeHtml(d.number)}</title>
 <style>
-@page { size: A6 portrait; margin: 0; }
+@page { size: 105mm 148mm; margin: 0; }
 * { box-sizing: border-box; }
 html, body { margin: 0; padding: 0; font-family: 'Open Sans', 'Segoe UI', Arial, sans-serif; color: #1b1b1b; background: #fff; }
 .tag { width: 105mm; height: 148mm; padding: 4mm; border: 3mm solid #b3261e; display: flex; flex-direction: column; gap: 2.5mm; overflow: hidden; }
@@ -46,7 +46,7 @@ html, body { margin: 0; padding: 0; font-family: 'Open Sans', 'Segoe UI', Arial,
 .grid { display: grid; grid-template-columns: 22mm 1fr; gap: 1mm 2mm; font-size: 9.5pt; }
 .k { color: #555; } .v { font-weight: 700; overflow-wrap: anywhere; }
 .qr { display: flex; gap: 3mm; align-items: center; margin-top: auto; }
-.qr svg { width: 30mm; height: 30mm; flex: none; }
+.qr svg { width: 38mm; height: 38mm; flex: none; }
 .qr p { margin: 0; font-size: 7.5pt; overflow-wrap: anywhere; }
 .foot { font-size: 6.5pt; color: #333; border-top: 0.3mm solid #b3261e; padding-top: 1.5mm; }
 @media screen { body { padding: 16px; background: #eee; } .tag { background: #fff; box-shadow: 0 2px 8px rgba(0,0,0,.2); } }

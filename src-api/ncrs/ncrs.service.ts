@@ -144,7 +144,7 @@ export class NcrsService {
       signatures: sigs.map(toSignature),
       totalCost: Math.round(dispositions.reduce((s, d) => s + d.cost, 0) * 100) / 100,
       closedAt: n.closedAt?.toISOString() ?? null,
-      history: history.map((h) => ({ at: h.at.toISOString(), action: h.action, actorEmail: h.actorEmail, reason: h.reason })),
+      history: history.map((h) => ({ at: h.at.toISOString(), action: h.action, actorEmail: h.actorEmail, reason: h.reason, detail: null })),
       reviewBoard: { countersignUseAsIs: this.cfg.USE_AS_IS_COUNTERSIGN },
     };
   }
@@ -168,6 +168,7 @@ export class NcrsService {
       .leftJoin(planCharacteristic, and(eq(planCharacteristic.planId, lot.planId), eq(planCharacteristic.code, reading.characteristicCode)))
       .where(and(inArray(reading.lotId, lots.map((x) => x.l.id)), eq(reading.conforming, false)))
       .orderBy(asc(lotSample.serial), asc(reading.characteristicCode));
+    const photos = await this.db.select({ id: photo.id, lotId: photo.lotId }).from(photo).where(inArray(photo.lotId, lots.map((x) => x.l.id))).orderBy(asc(photo.createdAt));
     return lots.map(({ l, s, p }) => ({
       id: l.id,
       ref: l.ref,
@@ -185,6 +186,7 @@ export class NcrsService {
         .filter((f) => f.lotId === l.id)
         .slice(0, 50)
         .map((f) => ({ readingId: f.r.id, sampleId: f.r.sampleId, serial: f.serial, characteristicCode: f.r.characteristicCode, name: f.c?.name ?? f.r.characteristicCode, value: f.r.value, unit: f.c?.unit ?? null, lsl: f.c?.lsl ?? null, usl: f.c?.usl ?? null, pass: f.r.pass, note: f.r.note })),
+      photoIds: photos.filter((x) => x.lotId === l.id).slice(0, 50).map((x) => x.id),
     }));
   }
 

@@ -116,8 +116,10 @@ export class SpcRepository {
   }
 
   async supplierAndPart(db: DbOrTx, supplierId: string, partId: string) {
-    const [s] = await db.select({ id: supplier.id, code: supplier.code, name: supplier.name }).from(supplier).where(eq(supplier.id, supplierId));
-    const [p] = await db.select({ id: part.id, partNumber: part.partNumber, revision: part.revision }).from(part).where(eq(part.id, partId));
+    const [[s], [p]] = await Promise.all([
+      db.select({ id: supplier.id, code: supplier.code, name: supplier.name }).from(supplier).where(eq(supplier.id, supplierId)),
+      db.select({ id: part.id, partNumber: part.partNumber, revision: part.revision }).from(part).where(eq(part.id, partId)),
+    ]);
     return { supplier: s, part: p };
   }
 

@@ -6,6 +6,7 @@ import { AuditRepository } from '../audit/audit.repository';
 import { conflict, notFound } from '../common/errors';
 import { now as clockNow } from '../common/clock';
 import { ValidationFailed, fieldsFromZod } from '../common/zod.pipe';
+import { SupplierNoticesService } from '../supplier-desk/supplier-notices.service';
 import { SpcRepository, type CharacteristicRow, type ControlLimitRow, type DriftSignalRow } from './spc.repository';
 import { ComputeError } from '../../shared/compute/errors';
 import { analyze } from '../../shared/compute/spc/analyze';
@@ -144,6 +145,7 @@ export class SpcService {
     @Inject(DB) private readonly db: Db,
     private readonly repo: SpcRepository,
     private readonly audit: AuditRepository,
+    private readonly notices: SupplierNoticesService,
   ) {}
 
   // ───────── reading ─────────
@@ -177,8 +179,9 @@ export class SpcService {
   }
 
   /** Loads and judges one chart: the current plan's characteristic, the lots, the limit versions. */
-  private async load(db: DbOrTx, supplierId: string, partId: string, code: string, char?: CharacteristicRow): Promise<Loaded> {
-    const c = char ?? (await this.repo.characteristics(db, partId, code))[0];
+  /** `char`: the row when already read (null = read and not found). */
+  private async load(db: DbOrTx, supplierId: string, partId: string, code: string, char?: CharacteristicRow | null): Promise<Loaded> {
+    const c = char === undefined ? (await this.repo.characteristics(db, partId, code))[0] : char;
     if (!c) throw notFound('characteristic on this part’s plan');
     if (c.chartKind === 'none') throw new ValidationFailed({ characteristicCode: `${c.code} is not charted: its plan sets no chart kind` }, `${c.code} is not charted`);
     const [lots, versions] = await Promise.all([this.repo.lotResults(db, supplierId, partId, c.code, fieldsNeeded(toDrift(c))), this.repo.versions(db, supplierId, partId, c.code)]);
@@ -204,11 +207,11 @@ export class SpcService {
   }
 
   async chart(q: ChartQuery): Promise<ChartResponse> {
-    const { supplier, part } = await this.repo.supplierAndPart(this.db, q.supplierId, q.partId);
+    // Independent reads in parallel: names, the characteristic, then the series with its versions and signals.
+    const [{ supplier, part }, [char]] = await Promise.all([this.repo.supplierAndPart(this.db, q.supplierId, q.partId), this.repo.characteristics(this.db, q.partId, q.characteristicCode)]);
     if (!supplier) throw notFound('supplier');
     if (!part) throw notFound('part');
-    const l = await this.load(this.db, q.supplierId, q.partId, q.characteristicCode);
-    const signals = await this.repo.signals(this.db, q.supplierId, q.partId, l.char.code);
+    const [l, signals] = await Promise.all([this.load(this.db, q.supplierId, q.partId, q.characteristicCode, char ?? null), this.repo.signals(this.db, q.supplierId, q.partId, q.characteristicCode)]);
     const byKey = new Map(signals.map((s) => [`${s.chart}|${s.rule}|${s.lotId}`, s.id]));
     const inRange = (iso: string) => {
       const d = iso.slice(0, 10);
@@ -510,6 +513,17 @@ export class SpcService {
       .values({ supplierId: ids.supplierId, partId: ids.partId, characteristicCode: l.char.code, ...values })
       .onConflictDoUpdate({ target: [dieWearForecast.supplierId, dieWearForecast.partId, dieWearForecast.characteristicCode], set: values });
     if (wear.serviceDue && !before?.serviceDue) {
+      // The supplier's desk notice and its e-mail (quiet for a while after one was sent).
+      await this.notices.dieServiceDue(
+        {
+          ...ids,
+          characteristicCode: l.char.code,
+          lotsRemaining: wear.lotsToLimit,
+          detail: `The conservative forecast leaves ${Math.floor(wear.lotsToLimitLower ?? 0)} lot${Math.floor(wear.lotsToLimitLower ?? 0) === 1 ? '' : 's'} before the limit of ${wear.usl}${l.char.unit ? ` ${l.char.unit}` : ''} (trend ${wear.slope >= 0 ? '+' : ''}${wear.slope.toPrecision(3)}${l.char.unit ? ` ${l.char.unit}` : ''} per lot over the last ${wear.lotsUsed} lots).`,
+          actor: actor ? { id: actor.id, email: actor.email } : null,
+        },
+        tx,
+      );
       await this.audit.record(tx, {
         actorId: actor?.id ?? null,
         actorEmail: actor?.email ?? null,

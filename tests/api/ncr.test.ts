@@ -67,6 +67,7 @@ describe('raising an NCR from a rejected lot', () => {
     const before = await eng.get('/api/ncrs/held-lots');
     const entry = before.body.items.find((x: { id: string }) => x.id === l.id);
     expect(entry.failures).toEqual([expect.objectContaining({ characteristicCode: 'BORE', value: 150.21, serial: 1, usl: 150.05 })]);
+    expect(entry.photoIds).toEqual([]);
     await raise(eng, { lotId: l.id });
     const after = await eng.get('/api/ncrs/held-lots');
     expect(after.body.items.map((x: { id: string }) => x.id)).not.toContain(l.id);

@@ -4,6 +4,7 @@ import {
   buildSeries,
   dieWearForecast,
   driftCapability,
+  fieldsNeeded,
   histogram,
   judgeSeries,
   proposeLimits,
@@ -163,6 +164,17 @@ describe('judgeSeries', () => {
     expect(split.points.some((p) => p.flags.some((f) => f.rule === 'we4'))).toBe(false);
   });
 
+  it('groups points into segments of shared limits, one per run of the same version', () => {
+    const series = buildSeries(variable({ chartKind: 'i-mr', subgroupSize: null }), lots([[10], [10.2], [9.9], [10.1], [10.3], [9.8]]));
+    const sut = judgeSeries(series, [{ version: 1, frozenAt: day(2), chart: 'i-mr', center: 10, sigma: 0.2 }], 'western-electric');
+    expect(sut.segments.map((g) => [g.from, g.to, g.limitVersion])).toEqual([[0, 1, null], [2, 5, 1]]);
+    expect(sut.segments[1].limits?.ucl).toBeCloseTo(10.6, 12); // NIST §6.3.2: centre + 3σ
+    expect(sut.points.map((p) => p.segment)).toEqual([0, 0, 1, 1, 1, 1]);
+    // The first point of a run has no moving range: it would span two sets of limits.
+    expect(sut.points[2].dispersion).toBeNull();
+    expect(sut.points[3].dispersion).toBeCloseTo(0.2, 12);
+  });
+
   it('says why there are no trial limits when the spread is zero', () => {
     const sut = judgeSeries(buildSeries(variable({ subgroupSize: 2 }), lots([[5, 5], [5, 5]])), [], 'western-electric');
     expect(sut.trial).toBeNull();
@@ -278,5 +290,14 @@ describe('dieWearForecast', () => {
 
   it('needs measurements from 3 lots', () => {
     expect(dieWearForecast(buildSeries(burr, lots([[[1, 2]], [[2, 3]]])), 50)).toBeNull();
+  });
+});
+
+describe('fieldsNeeded', () => {
+  it('asks the chart query only for what the subgrouping reads', () => {
+    expect(fieldsNeeded(variable({ layout: 'single', readingsPerSample: 4, subgroupSize: 4 }))).toEqual({ sampleId: true, value: false, values: true, conforming: false });
+    expect(fieldsNeeded(variable({ subgroupSize: 5 }))).toEqual({ sampleId: false, value: true, values: false, conforming: false });
+    expect(fieldsNeeded(variable({ chartKind: 'i-mr' }))).toEqual({ sampleId: true, value: true, values: false, conforming: false });
+    expect(fieldsNeeded(variable({ kind: 'attribute', chartKind: 'p' }))).toEqual({ sampleId: false, value: false, values: false, conforming: true });
   });
 });

@@ -171,19 +171,25 @@ export function buildSeries(c: DriftCharacteristic, lots: readonly LotResults[])
     return { chart, mode: 'core-readings', n: g, points, skipped, explanation: `One subgroup per sampled core: ${per} (the plan’s subgroup size ${g}).` };
   }
 
-  const counts = lots.map((lot) => lot.cores.filter((k) => finite(k.value)).length).filter((n) => n > 0);
-  const n = g ?? modalCount(counts);
+  // One pass for the values of each lot (5 000 lots must stay cheap), then the size and subgroups.
+  const valuesOf = lots.map((lot) => {
+    const out: number[] = [];
+    for (const k of lot.cores) if (finite(k.value)) out.push(k.value);
+    return out;
+  });
+  const n = g ?? modalCount(valuesOf.map((v) => v.length).filter((v) => v > 0));
   if (n === 1) {
     return buildSeries({ ...c, chartKind: 'i-mr', subgroupSize: 1 }, lots);
   }
-  lots.forEach((lot, i) => {
-    const values = lot.cores.filter((k) => finite(k.value)).map((k) => k.value as number);
+  for (let i = 0; i < lots.length; i++) {
+    const lot = lots[i];
+    const values = valuesOf[i];
     if (n === null || values.length < n) {
       skipped.push({ lotId: lot.lotId, lotRef: lot.lotRef, reason: `only ${values.length} core${values.length === 1 ? '' : 's'} with a value; the subgroup size is ${n ?? '—'}` });
-      return;
+      continue;
     }
-    points.push({ ...base(lot, i + 1), sampleId: null, serial: null, chunk: null, subgroup: values.slice(0, n) });
-  });
+    points.push({ lotId: lot.lotId, lotRef: lot.lotRef, lotSeq: i + 1, receivedAt: lot.receivedAt, decidedAt: lot.decidedAt, sampleId: null, serial: null, chunk: null, subgroup: values.length === n ? values : values.slice(0, n) });
+  }
   const size = n ?? 0;
   const chart = c.chartKind === 'xbar-r' && size > 10 ? 'xbar-s' : (c.chartKind as DriftChart);
   const why = g != null ? `the plan’s subgroup size ${g}` : `the usual number of sampled cores per lot, ${size}`;

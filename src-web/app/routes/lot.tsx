@@ -15,6 +15,7 @@ import { certificateUrl, getLotQueryOptions, getProposalQueryOptions, useAttachC
 import { useReadingQueue } from '../../features/lots/api/use-reading-queue';
 import { usePhotoUploads } from '../../features/lots/api/use-photo-uploads';
 import { BenchSheet } from '../../features/lots/components/bench-sheet';
+import { ImportGaugeCsv } from '../../features/lots/components/import-dialog';
 import { DecisionPanel } from '../../features/lots/components/decision-panel';
 import { LotStatusPill, formatDateTime, isOpenLot } from '../../features/lots/components/lot-status';
 import { PhotoSection } from '../../features/lots/components/photos';
@@ -172,6 +173,8 @@ function LotFile({ id }: { id: string }) {
   const arrival = (location.state ?? {}) as { received?: boolean; certError?: string | null };
   const qc = useQueryClient();
   const [dismissed, setDismissed] = useState(false);
+  // Bumped after a gauge CSV import: the sheet starts afresh from the readings now stored.
+  const [sheetRev, setSheetRev] = useState(0);
   const { data: me } = useMe();
   const internal = !!me && me.role !== 'supplier';
   const canWrite = me?.role === 'inspector' || me?.role === 'engineer';
@@ -262,7 +265,7 @@ function LotFile({ id }: { id: string }) {
           <EmptyState title="The bench sheet cannot be shown">{(plan.error ?? part.error)?.message}</EmptyState>
         ) : (
           <BenchSheet
-            key={l.id}
+            key={`${l.id}:${sheetRev}`}
             lot={l}
             plan={plan.data}
             part={part.data}
@@ -270,10 +273,7 @@ function LotFile({ id }: { id: string }) {
             queue={queue}
             photos={editable ? benchPhotos : undefined}
             importAction={
-              editable ? (
-                // The gauge CSV import plugs in here (POST /api/lots/:id/imports); it arrives separately.
-                <Button className={s.touch} disabled title="Gauge CSV import arrives with a later change">Import gauge CSV</Button>
-              ) : undefined
+              editable ? <ImportGaugeCsv className={s.touch} lot={l} plan={plan.data} unsentOnSheet={queue.unsent} onImported={() => setSheetRev((n) => n + 1)} /> : undefined
             }
           />
         )}

@@ -115,8 +115,8 @@ function Dispositions({ n }: { n: Ncr }) {
       <div style={{ marginTop: 14 }} aria-label="Signatures">
         {n.signatures.map((g) => (
           <div key={g.id} className={s.sig}>
-            <Body1><strong>{g.signerName}</strong> ({g.signerEmail}) — “{g.meaning}”</Body1>
-            <Caption1 as="p" className={s.muted} style={{ margin: 0 }}>{g.purpose === 'concession' ? 'Second signature (concession)' : 'E-signed'} {formatWhen(g.signedAt)} · SHA-256 <span className={s.hash}>{g.contentHash}</span></Caption1>
+            <Body1 block><strong>{g.signerName}</strong> ({g.signerEmail}) — “{g.meaning}”</Body1>
+            <Caption1 block className={s.muted}>{g.purpose === 'concession' ? 'Second signature (concession)' : 'E-signed'} {formatWhen(g.signedAt)} · SHA-256 <span className={s.hash}>{g.contentHash}</span></Caption1>
           </div>
         ))}
       </div>

@@ -1,5 +1,5 @@
-import { Badge, Body1, Button, Caption1, Field, Select, Tab, TabList, Table, TableBody, TableCell, TableHeader, TableRow, makeStyles, tokens } from '@fluentui/react-components';
-import { useState } from 'react';
+import { Badge, Body1, Button, Caption1, Field, Select, Tab, TabList, Table, TableBody, TableCell, TableHeader, TableRow, makeStyles, mergeClasses, tokens } from '@fluentui/react-components';
+import { useEffect, useState } from 'react';
 import { Link, useNavigate, useSearchParams } from 'react-router-dom';
 import { NCR_STATUSES, NCR_STATUS_LABELS, type HeldLot, type NcrStatus } from '@shared/schemas/ncr';
 import { Page } from '../../components/page';
@@ -25,6 +25,7 @@ const useStyles = makeStyles({
   lotHead: { display: 'flex', justifyContent: 'space-between', alignItems: 'baseline', gap: '8px' },
   fails: { margin: 0, paddingLeft: '18px' },
   title: { maxWidth: '36ch', display: 'block', overflow: 'hidden', textOverflow: 'ellipsis', whiteSpace: 'nowrap' },
+  nowrap: { whiteSpace: 'nowrap' },
 });
 
 const TABS = ['reports', 'waiting', 'codes'] as const;
@@ -73,6 +74,14 @@ export function NcrsPage() {
   const [raising, setRaising] = useState<{ lot: HeldLot | null } | null>(null);
   const items = list.data?.items ?? [];
   const waiting = held.data?.items.length ?? 0;
+  // `?raise=<lot id>` (from the Lot file) opens the panel for that held lot.
+  const raiseId = sp.get('raise');
+  useEffect(() => {
+    const l = raiseId ? held.data?.items.find((x) => x.id === raiseId) : undefined;
+    if (!l) return;
+    setRaising({ lot: l });
+    setSp((p) => { const n = new URLSearchParams(p); n.delete('raise'); n.set('tab', 'waiting'); return n; }, { replace: true });
+  }, [raiseId, held.data, setSp]);
 
   return (
     <Page
@@ -131,12 +140,12 @@ export function NcrsPage() {
                       <TableCell><NcrStatusPill status={n.status} /></TableCell>
                       <TableCell><span className={s.title} title={n.title}>{n.title}</span></TableCell>
                       <TableCell>{n.supplierCode ?? '—'}</TableCell>
-                      <TableCell>{n.partNumber ? `${n.partNumber} ${n.partRevision}` : '—'}</TableCell>
+                      <TableCell className={s.nowrap}>{n.partNumber ? `${n.partNumber} ${n.partRevision}` : '—'}</TableCell>
                       <TableCell>{n.lotRef != null && n.lotId ? <Link to={paths.lot(n.lotId)}>#{n.lotRef}</Link> : '—'}</TableCell>
                       <TableCell>{n.defectCodes.map((c) => <span key={c} className={s.code}>{c}</span>)}</TableCell>
                       <TableCell>{n.suspectQuantity}</TableCell>
-                      <TableCell className={s.muted}>{formatDay(n.raisedAt)}</TableCell>
-                      <TableCell>{n.scarId ? <Link to={paths.scar(n.scarId)}>{n.scarNumber}</Link> : '—'}</TableCell>
+                      <TableCell className={mergeClasses(s.muted, s.nowrap)}>{formatDay(n.raisedAt)}</TableCell>
+                      <TableCell>{n.scarId ? <Link className={s.number} to={paths.scar(n.scarId)}>{n.scarNumber}</Link> : '—'}</TableCell>
                     </TableRow>
                   ))}
                 </TableBody>

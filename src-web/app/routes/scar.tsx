@@ -115,7 +115,7 @@ export function ScarPage() {
             {c.history.map((h, i) => (
               <li key={i} className={s.event}>
                 <Caption1 className={s.muted}>{formatWhen(h.at)}</Caption1>
-                <span>{actionLabel(h.action)}{h.actorEmail ? ` · ${h.actorEmail}` : ''}{h.reason ? ` — ${h.reason}` : ''}</span>
+                <span>{actionLabel(h.action)}{h.detail ? ` ${h.detail}` : ''}{h.actorEmail ? ` · ${h.actorEmail}` : ''}{h.reason ? ` — ${h.reason}` : ''}</span>
               </li>
             ))}
           </ol>

@@ -12,7 +12,8 @@ import { DueDate, ScarStatusPill } from '../../features/corrective-actions/compo
 const useStyles = makeStyles({
   number: { fontFamily: tokens.fontFamilyMonospace, fontWeight: 700, color: tokens.colorBrandForeground1, textDecoration: 'none', whiteSpace: 'nowrap', ':hover': { textDecoration: 'underline' } },
   filter: { minWidth: '200px' },
-  muted: { color: tokens.colorNeutralForeground3 },
+  muted: { color: tokens.colorNeutralForeground3, whiteSpace: 'nowrap' },
+  nowrap: { whiteSpace: 'nowrap' },
   title: { maxWidth: '36ch', display: 'block', overflow: 'hidden', textOverflow: 'ellipsis', whiteSpace: 'nowrap' },
 });
 
@@ -61,8 +62,8 @@ export function ScarsPage() {
                   <TableCell><ScarStatusPill status={x.status} /></TableCell>
                   <TableCell><span className={s.title} title={x.title}>{x.title}</span></TableCell>
                   <TableCell>{x.supplierCode}</TableCell>
-                  <TableCell><Link to={paths.ncr(x.ncrId)}>{x.ncrNumber}</Link></TableCell>
-                  <TableCell>{x.nextDueStep ? <>{x.nextDueStep} {STEP_INFO[x.nextDueStep].title} · <DueDate dueOn={x.nextDueOn} overdue={x.overdue} /></> : '—'}</TableCell>
+                  <TableCell><Link className={s.number} to={paths.ncr(x.ncrId)}>{x.ncrNumber}</Link></TableCell>
+                  <TableCell className={s.nowrap}>{x.nextDueStep ? <>{x.nextDueStep} {STEP_INFO[x.nextDueStep].title} · <DueDate dueOn={x.nextDueOn} overdue={x.overdue} /></> : '—'}</TableCell>
                   <TableCell className={s.muted}>{new Date(x.issuedAt).toLocaleDateString()}</TableCell>
                 </TableRow>
               ))}

@@ -8,8 +8,10 @@ export function ScarStatusPill({ status }: { status: ScarStatus }) {
 
 const STEP_TONE: Record<StepStatus, Tone> = { locked: 'neutral', open: 'pending', submitted: 'info', accepted: 'ok', returned: 'bad' };
 
-export function StepStatusPill({ status }: { status: StepStatus }) {
-  return <StatusPill tone={STEP_TONE[status]}>{STEP_STATUS_LABELS[status]}</StatusPill>;
+/** The step's state; `internal` words it for Harrowgate's side ("with the supplier" rather than "to answer"). */
+export function StepStatusPill({ status, internal }: { status: StepStatus; internal?: boolean }) {
+  const label = internal && status === 'open' ? 'With the supplier' : internal && status === 'returned' ? 'Returned, with the supplier' : STEP_STATUS_LABELS[status];
+  return <StatusPill tone={STEP_TONE[status]}>{label}</StatusPill>;
 }
 
 export const formatDue = (iso: string) => new Date(`${iso}T12:00:00Z`).toLocaleDateString(undefined, { weekday: 'short', day: 'numeric', month: 'short', year: 'numeric' });

@@ -10,6 +10,7 @@ import { AnswerView, NoAnswer, StepFields, cleanAnswer, initialAnswer } from './
 
 const useStyles = makeStyles({
   card: { border: `1px solid ${tokens.colorNeutralStroke2}`, borderRadius: tokens.borderRadiusLarge, padding: '14px 16px', backgroundColor: tokens.colorNeutralBackground1, display: 'flex', flexDirection: 'column', gap: '10px' },
+  locked: { padding: '8px 16px', gap: '4px', backgroundColor: tokens.colorNeutralBackground2 },
   open: { borderLeft: `4px solid ${tokens.colorPaletteMarigoldBorderActive}` },
   returned: { borderLeft: `4px solid ${tokens.colorPaletteRedBorder2}` },
   done: { borderLeft: `4px solid ${tokens.colorPaletteGreenBorder2}` },
@@ -167,17 +168,17 @@ export function StepCard({ scar, step, role }: { scar: Scar; step: ScarStep; rol
   const done = step.status === 'submitted' || step.status === 'accepted';
   return (
     <section
-      className={mergeClasses(s.card, step.status === 'returned' ? s.returned : step.status === 'accepted' ? s.done : step.status === 'open' ? s.open : undefined)}
+      className={mergeClasses(s.card, step.status === 'returned' ? s.returned : step.status === 'accepted' ? s.done : step.status === 'open' ? s.open : step.status === 'locked' ? s.locked : undefined)}
       aria-label={`${step.step} ${info.title}`}
     >
       <div className={s.head}>
         <span className={s.step}>{step.step}</span>
         <Subtitle2 as="h3">{info.title}</Subtitle2>
-        <StepStatusPill status={step.status} />
+        <StepStatusPill status={step.status} internal={role !== 'supplier'} />
         <span className={s.grow} />
         <DueDate dueOn={step.dueOn} overdue={step.overdue} done={done} />
       </div>
-      <Body1 className={s.muted}>{info.purpose}</Body1>
+      {step.status !== 'locked' ? <Body1 className={s.muted}>{info.purpose}</Body1> : null}
       {step.status === 'returned' && step.reviewComment ? (
         <MessageBar intent="warning">
           <MessageBarBody>

@@ -5,9 +5,9 @@ import type { EightDStep } from '@shared/schemas/corrective-action';
 import { NumberField } from '../../../components/form-fields';
 
 const useStyles = makeStyles({
-  group: { display: 'flex', flexDirection: 'column', gap: '12px' },
+  group: { display: 'flex', flexDirection: 'column', gap: '12px', '& .fui-Input': { minWidth: 0, width: '100%' } },
   pair: { display: 'grid', gridTemplateColumns: 'repeat(2, minmax(0, 1fr))', gap: '12px', '@media (max-width: 700px)': { gridTemplateColumns: '1fr' } },
-  rows: { display: 'flex', flexDirection: 'column', gap: '8px' },
+  rows: { display: 'flex', flexDirection: 'column', gap: '8px', '& .fui-Input': { minWidth: 0, width: '100%' } },
   row: { display: 'grid', gridTemplateColumns: 'minmax(0, 2fr) minmax(0, 1fr) 160px auto', gap: '8px', alignItems: 'end', '@media (max-width: 800px)': { gridTemplateColumns: '1fr 1fr' } },
   row2: { display: 'grid', gridTemplateColumns: 'minmax(0, 1fr) minmax(0, 1fr) auto', gap: '8px', alignItems: 'end' },
   legend: { fontWeight: 600, padding: 0, marginBottom: '6px' },

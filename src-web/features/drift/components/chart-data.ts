@@ -1,4 +1,5 @@
-import type { ChartPoint, ChartResponse } from '@shared/schemas/drift';
+// Relative import (not @shared): tests/unit load this file under the root tsconfig too.
+import type { ChartPoint, ChartResponse } from '../../../../shared/schemas/drift';
 
 /** Above this many subgroups the drawn line is thinned (flagged points are always drawn). */
 export const MAX_DRAWN = 2000;

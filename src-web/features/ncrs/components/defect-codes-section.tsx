@@ -8,7 +8,7 @@ import { StatusPill } from '../../../components/status-pill';
 import { useCreateDefectCode, useDefectCodes, useUpdateDefectCode } from '../api/ncrs';
 
 const useStyles = makeStyles({
-  add: { display: 'grid', gridTemplateColumns: '160px minmax(200px, 1fr) minmax(200px, 1.4fr) auto', gap: '10px', alignItems: 'end', marginBottom: '16px', '@media (max-width: 1000px)': { gridTemplateColumns: '1fr 1fr' } },
+  add: { display: 'grid', gridTemplateColumns: '160px minmax(200px, 1fr) minmax(200px, 1.4fr) auto', gap: '10px', alignItems: 'end', marginBottom: '16px', '& .fui-Input': { minWidth: 0, width: '100%' }, '@media (max-width: 1000px)': { gridTemplateColumns: '1fr 1fr' } },
   code: { fontFamily: tokens.fontFamilyMonospace, fontWeight: 700 },
   touch: { minHeight: '44px' },
   muted: { color: tokens.colorNeutralForeground3 },
@@ -74,7 +74,7 @@ export function DefectCodesSection({ canEdit }: { canEdit: boolean }) {
         >
           {(form) => (
             <>
-              <TextField name="code" label="Code" required autoComplete="off" hint="2–16 letters, digits, dashes" />
+              <TextField name="code" label="Code" required autoComplete="off" placeholder="2–16 letters, digits" />
               <TextField name="name" label="Name" required />
               <TextField name="description" label="Description" />
               <Button className={s.touch} appearance="primary" type="submit" disabled={form.formState.isSubmitting}>Add code</Button>

@@ -3,9 +3,10 @@ import type { Ncr } from '@shared/schemas/ncr';
 import { ncrQrUrl } from '../api/ncrs';
 
 // A6 label stock (105 × 148 mm), no margins; the red must print even with "background graphics"
-// off. A plain style element: the @page rule must reach the document as written.
+// off. A plain style element: the @page rule must reach the document as written. The size is
+// given in mm because Chromium has no "A6" keyword (it would fall back to Letter).
 const PAGE_CSS = `
-@page { size: A6 portrait; margin: 0; }
+@page { size: 105mm 148mm; margin: 0; }
 @media print {
   html, body { margin: 0 !important; padding: 0 !important; background: #fff !important; }
   .no-print { display: none !important; }
@@ -40,7 +41,7 @@ const useStyles = makeStyles({
   k: { color: '#555' },
   v: { fontWeight: 700, margin: 0, overflowWrap: 'anywhere' },
   qr: { display: 'flex', gap: '3mm', alignItems: 'center', marginTop: 'auto' },
-  qrImg: { width: '30mm', height: '30mm', flex: 'none' },
+  qrImg: { width: '38mm', height: '38mm', flex: 'none' },
   url: { margin: 0, fontSize: '7.5pt', overflowWrap: 'anywhere' },
   foot: { fontSize: '6.5pt', color: '#333', borderTop: `0.3mm solid ${RED}`, paddingTop: '1.5mm', margin: 0 },
 });

@@ -81,7 +81,9 @@ export function RaiseNcrPanel({ open, lot, onClose, onCreated }: { open: boolean
       {lot ? (
         <div className={s.lot}>
           <Body1><strong>Lot #{lot.ref}</strong> · {lot.supplierCode} · {lot.partNumber} rev {lot.partRevision} · {lot.quantity} cores</Body1>
-          <Caption1 className={s.muted}>Supplier lot {lot.supplierLotNumber}. The lot stays on hold; the failed readings below are linked to the report.</Caption1>
+          <Caption1 className={s.muted}>
+            Supplier lot {lot.supplierLotNumber}. The lot stays on hold; the failed readings below{lot.photoIds.length ? ` and the lot’s ${lot.photoIds.length} photo${lot.photoIds.length === 1 ? '' : 's'}` : ''} are linked to the report.
+          </Caption1>
           {lot.failures.length ? (
             <ul className={s.fail}>
               {lot.failures.slice(0, 8).map((f) => (
@@ -105,7 +107,7 @@ export function RaiseNcrPanel({ open, lot, onClose, onCreated }: { open: boolean
             found: v.found,
             defectCodes: v.defectCodes,
             suspectQuantity: v.suspectQuantity,
-            ...(lot ? { lotId: lot.id, readingIds: lot.failures.map((f) => f.readingId) } : {}),
+            ...(lot ? { lotId: lot.id, readingIds: lot.failures.map((f) => f.readingId), ...(lot.photoIds.length ? { photoIds: lot.photoIds } : {}) } : {}),
             ...(manual && v.supplierId ? { supplierId: v.supplierId } : {}),
             ...(manual && v.partId ? { partId: v.partId } : {}),
           });
