@@ -45,9 +45,9 @@ export function writeResults(results: BenchResult[], meta: Record<string, unknow
   const dir = path.resolve(__dirname, '../../../bench/results');
   fs.mkdirSync(dir, { recursive: true });
   const stamp = new Date().toISOString().replace(/[:.]/g, '-');
-  const file = path.join(dir, `${stamp.slice(0, 10)}.json`);
+  const file = path.join(dir, `${stamp.slice(0, 19)}.json`);
   fs.writeFileSync(file, JSON.stringify({ ...meta, at: new Date().toISOString(), results }, null, 2));
   const lines = results.map((r) => `${r.met ? 'MET ' : 'MISS'}  ${r.name.padEnd(44)} ratio ${String(round(r.ratio, 3)).padEnd(8)} target ${r.target}${r.notes ? `  (${r.notes})` : ''}`);
-  fs.writeFileSync(path.join(dir, `${stamp.slice(0, 10)}.txt`), `${lines.join('\n')}\n`);
+  fs.writeFileSync(path.join(dir, `${stamp.slice(0, 19)}.txt`), `${lines.join('\n')}\n`);
   return file;
 }

@@ -248,6 +248,112 @@ describe('evaluateRules: agreement with a direct reading of each rule', () => {
       expect(expected.length, rule).toBeGreaterThan(0);
     }
   });
+
+  it('matches the reference on a 12 000-point series, across the chunks the pass works in', () => {
+    const points = [...series(21), ...series(22), ...series(23), ...series(24)];
+    const all = [...RULE_SETS['western-electric'], ...RULE_SETS.nelson];
+    const together = evaluateRules(points, 0, 1, all);
+    for (const rule of all) {
+      const expected = points.flatMap((_, i) => (reference[kindOf[rule]](points, i) ? [i] : []));
+      expect(together.filter((s) => s.rule === rule).map((s) => s.index), rule).toEqual(expected); // direct reading of the rule (above)
+      expect(expected.length, rule).toBeGreaterThan(0);
+    }
+  });
+
+  it('gives the same signals for typed arrays as for plain arrays', () => {
+    const points = series(31);
+    const sigmas = points.map((_, i) => (i % 7 === 0 ? 0.5 : 1));
+    for (const rules of ['western-electric', 'nelson'] as const) {
+      expect(evaluateRules(Float64Array.from(points), 0, 1, rules)).toEqual(evaluateRules(points, 0, 1, rules));
+      expect(evaluateRules(Float64Array.from(points), 0, Float64Array.from(sigmas), rules)).toEqual(
+        evaluateRules(points, 0, sigmas, rules),
+      );
+    }
+  });
+
+  it('judges each point against its own σ (p charts), as the reference does on the scaled series', () => {
+    // x = z·σᵢ with σᵢ a power of two keeps every zone boundary exact: x is beyond kσᵢ exactly
+    // when z is beyond k. Trends and zig-zags depend on x itself, so they are left out here.
+    const z = series(41);
+    const u = rng(42);
+    const sigmas = z.map(() => [0.25, 0.5, 1, 2, 4][Math.floor(u() * 5)]);
+    const x = z.map((v, i) => v * sigmas[i]);
+    for (const rule of ['we1', 'we2', 'we3', 'we4', 'nelson2', 'nelson7', 'nelson8'] as RuleId[]) {
+      const expected = z.flatMap((_, i) => (reference[kindOf[rule]](z, i) ? [i] : []));
+      expect(fired(x, rule, 0, sigmas), rule).toEqual(expected); // direct reading of the rule (above)
+      expect(expected.length, rule).toBeGreaterThan(0);
+    }
+  });
+});
+
+describe('evaluateRules: long series', () => {
+  it('counts a run that crosses many chunks point by point', () => {
+    const sut = evaluateRules(rep(0.5, 5000), 0, 1, ['we4']);
+    // WE rule 4 fires at every point that continues the run (see the header's firing convention).
+    expect(sut).toHaveLength(5000 - 7);
+    expect(sut[0]).toEqual({ rule: 'we4', index: 7, message: 'point 8 ends a run of 8 points above the centre (we4)' });
+    expect(sut[4000].message).toBe('point 4008 ends a run of 4008 points above the centre (we4)');
+    expect(sut.at(-1)?.message).toBe('point 5000 ends a run of 5000 points above the centre (we4)');
+  });
+
+  it('counts a steady fall and a zig-zag that cross many chunks', () => {
+    const fall = evaluateRules(Array.from({ length: 3000 }, (_, i) => -i / 1000), 0, 1, ['nelson3']);
+    expect(fall.map((s) => s.index)).toEqual(Array.from({ length: 3000 - 5 }, (_, k) => k + 5)); // Nelson test 3
+    expect(fall.at(-1)?.message).toBe('point 3000 ends 3000 points in a row steadily decreasing (nelson3)');
+    const zigzag = evaluateRules(Array.from({ length: 3000 }, (_, i) => (i % 2 ? 0.3 : -0.3)), 0, 1, ['nelson4', 'nelson7']);
+    expect(zigzag.filter((s) => s.rule === 'nelson4')).toHaveLength(3000 - 13); // Nelson test 4
+    expect(zigzag.filter((s) => s.rule === 'nelson7')).toHaveLength(3000 - 14); // Nelson test 7
+    expect(zigzag.at(-1)?.message).toBe('point 3000 ends 3000 points in a row within 1σ of the centre (nelson7)');
+    expect(zigzag.at(-2)?.message).toBe('point 3000 ends 3000 points in a row alternating up and down (nelson4)');
+  });
+
+  it('restarts the count when a run breaks and starts again', () => {
+    const sut = evaluateRules([...rep(0.5, 9), -0.5, ...rep(0.5, 9)], 0, 1, ['we4']);
+    expect(sut.map((s) => s.message)).toEqual([
+      'point 8 ends a run of 8 points above the centre (we4)',
+      'point 9 ends a run of 9 points above the centre (we4)',
+      'point 18 ends a run of 8 points above the centre (we4)',
+      'point 19 ends a run of 9 points above the centre (we4)',
+    ]);
+  });
+
+  it('reports an invalid point or σ by its position, far into the series too', () => {
+    const points = rep(0.5, 5000);
+    points[3000] = Number.NaN;
+    expect(() => evaluateRules(points, 0, 1, 'nelson')).toThrow('point 3001 is not a finite number');
+    const sigmas = rep(1, 5000);
+    sigmas[4000] = -1;
+    expect(() => evaluateRules(rep(0.5, 5000), 0, sigmas, 'nelson')).toThrow('sigma for point 4001 must be a finite number of at least 0');
+    // At the same point the value is checked before its σ.
+    expect(() => evaluateRules([1, Number.NaN], 0, [1, -1])).toThrow('point 2 is not a finite number');
+  });
+});
+
+describe('evaluateRules: rule lists', () => {
+  it('keeps the order of a custom list at each point, repeats included', () => {
+    const sut = evaluateRules(rep(0.5, 10), 0, 1, ['nelson2', 'we4', 'we4']);
+    expect(sut.map((s) => `${s.rule}@${s.index}`)).toEqual([
+      'we4@7',
+      'we4@7',
+      'nelson2@8',
+      'we4@8',
+      'we4@8',
+      'nelson2@9',
+      'we4@9',
+      'we4@9',
+    ]);
+    expect(sut.at(-1)?.message).toBe('point 10 ends a run of 10 points above the centre (we4)');
+  });
+
+  it('does not count the empty start as points outside 1σ', () => {
+    expect(fired([1.5, -1.5, 2, -2, 1.2, -1.2, 1.5], 'nelson8')).toEqual([]);
+    expect(fired([1.5, -1.5, 2, -2, 1.2, -1.2, 1.5, -1.5], 'nelson8')).toEqual([7]); // Nelson test 8
+  });
+
+  it('evaluates no rules to no signals but still checks the points', () => {
+    expect(evaluateRules([0, 5, -5], 0, 1, [])).toEqual([]);
+    expect(() => evaluateRules([0, Number.POSITIVE_INFINITY], 0, 1, [])).toThrow('point 2 is not a finite number');
+  });
 });
 
 describe('evaluateRules: scale', () => {

@@ -1,4 +1,4 @@
-import { Button, Caption1, Field, Input, Select, Subtitle1, Table, TableBody, TableCell, TableHeader, TableRow, makeStyles, tokens } from '@fluentui/react-components';
+import { Button, Field, Input, Select, Subtitle1, Table, TableBody, TableCell, TableHeader, TableRow, makeStyles, tokens } from '@fluentui/react-components';
 import { useMemo } from 'react';
 import { useSearchParams } from 'react-router-dom';
 import { scorecardRange } from '@shared/compute/scorecard';
@@ -23,7 +23,6 @@ const useStyles = makeStyles({
   link: { color: tokens.colorBrandForeground1, fontWeight: 600, textDecoration: 'none', ':hover': { textDecoration: 'underline' } },
   code: { fontFamily: tokens.fontFamilyMonospace, color: tokens.colorNeutralForeground3, marginLeft: '6px' },
   notes: { color: tokens.colorNeutralForeground3, margin: '8px 0 0', paddingLeft: '18px', maxWidth: '100ch', fontSize: tokens.fontSizeBase200 },
-  range: { color: tokens.colorNeutralForeground3, alignSelf: 'center' },
 });
 
 const todayIso = () => new Date().toISOString().slice(0, 10);
@@ -74,13 +73,12 @@ export function ScorecardsPage() {
           </Select>
         </Field>
         <Field label="From" validationState={checked.error?.field === 'from' ? 'error' : 'none'} validationMessage={checked.error?.field === 'from' ? checked.error.message : undefined}>
-          <Input className={s.date} type="date" value={from ?? ''} max={to} onChange={(_, d) => set({ from: d.value || undefined })} />
+          <Input className={s.date} type="date" value={from ?? checked.range?.from ?? ''} max={to ?? checked.range?.to} onChange={(_, d) => set({ from: d.value || undefined })} />
         </Field>
         <Field label="To" validationState={checked.error?.field === 'to' ? 'error' : 'none'} validationMessage={checked.error?.field === 'to' ? checked.error.message : undefined}>
-          <Input className={s.date} type="date" value={to ?? ''} min={from} onChange={(_, d) => set({ to: d.value || undefined })} />
+          <Input className={s.date} type="date" value={to ?? checked.range?.to ?? ''} min={from ?? checked.range?.from} onChange={(_, d) => set({ to: d.value || undefined })} />
         </Field>
         {from || to || period !== 'month' ? <Button className={s.touch} onClick={() => set({ from: undefined, to: undefined, period: undefined })}>Last 6 months</Button> : null}
-        {checked.range ? <Caption1 className={s.range}>{checked.range.from} to {checked.range.to}</Caption1> : null}
       </ListToolbar>
 
       {!checked.range ? (
