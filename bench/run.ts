@@ -16,6 +16,7 @@ import { benchAnalyze } from './analyze.bench';
 import { benchPhoto } from './photo.bench';
 import { benchImport } from './import.bench';
 import { benchBundle } from './bundle.bench';
+import { benchChart, benchChartFlat, benchLoad, chartFixture } from './charts.bench';
 
 const PGPORT = Number(process.env.PGPORT ?? 55434);
 const only = process.argv.slice(2);
@@ -41,7 +42,7 @@ async function main(): Promise<void> {
   };
   if (want('analyze')) log(await benchAnalyze());
   if (want('photo')) log(await benchPhoto());
-  const server = ['import', 'bundle', 'charts', 'load'].some(want);
+  const server = ['import', 'bundle', 'charts', 'load', 'flat'].some(want);
   if (server) {
     const url = await freshDb('yokeline_bench');
     const pool = createPool(url, 4);
@@ -59,6 +60,13 @@ async function main(): Promise<void> {
       const plan = await eng.post('/api/plans', { partId: p.id, samplingKind: 'zero-acceptance', zeroSampleSize: 2000, characteristics: chars });
       await eng.post(`/api/plans/${plan.body.id}/activate`, { version: plan.body.version });
       log(await benchImport(eng, pool, { supplierId: s.id, partId: p.id }));
+    }
+    if (want('charts') || want('load') || want('flat')) {
+      const f = await chartFixture(eng, pool);
+      if (want('charts')) log(await benchChart(eng, pool, f));
+      if (want('load')) log(await benchLoad(base, eng, f));
+      // 10⁷ readings take minutes and ~2 GB of disk: only when asked for by name.
+      if (only.includes('flat')) log(await benchChartFlat(eng, pool, f, Number(process.env.BENCH_BIG_ROWS ?? 10_000_000)));
     }
     await app.close();
     await pool.end();

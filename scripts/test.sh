@@ -22,7 +22,7 @@ e2e_db=postgres://postgres@127.0.0.1:$PGPORT/yokeline_e2e
 psql -q -h 127.0.0.1 -p "$PGPORT" -U postgres -d postgres -c 'drop database if exists yokeline_e2e with (force)' >/dev/null
 DATABASE_URL=$e2e_db node dist/server/src-api/db/migrate.js >/dev/null
 DATABASE_URL=$e2e_db node dist/server/src-api/seed/seed.js >/dev/null
-DATABASE_URL=$e2e_db LOG_LEVEL=warn NODE_ENV=test WORKERS=true setsid node dist/server/src-api/main.js >"$out/e2e-server.log" 2>&1 &
+DATABASE_URL=$e2e_db LOG_LEVEL=warn NODE_ENV=test WORKERS=true LOGIN_RATE_PER_MINUTE=600 setsid node dist/server/src-api/main.js >"$out/e2e-server.log" 2>&1 &
 echo $! >"$here/.data/run/test/api.pid"
 for _ in $(seq 1 100); do curl -fs "$E2E_BASE_URL/api/health" >/dev/null 2>&1 && break; sleep 0.1; done
 

@@ -2,7 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { BrowserContext, Page } from 'playwright-core';
 import { launchBrowser, screenshot, signIn, watchRequests } from '../support/browser';
 import { E2E_BASE_URL as BASE } from '../support/env';
-import { DEMO, signedIn } from '../support/http';
+import { DEMO } from '../support/http';
 
 let ctx: BrowserContext;
 beforeAll(async () => {
@@ -12,13 +12,16 @@ afterAll(async () => {
   await ctx?.close();
 });
 
-async function home(email: string): Promise<{ page: Page; requests: string[] }> {
+async function home(email: string): Promise<{ page: Page; requests: string[]; api: Record<string, any> }> {
   await ctx.clearCookies();
   const page = await ctx.newPage();
   const requests = watchRequests(page);
   await signIn(page, BASE, email);
   await page.waitForURL(`${BASE}/`);
-  return { page, requests };
+  // The figures the page should show, read with the page's own session (one sign-in per role:
+  // the server limits sign-ins per address and minute).
+  const api = await (await page.request.get(`${BASE}/api/dashboard`)).json();
+  return { page, requests, api };
 }
 
 const region = (page: Page, name: string) => page.getByRole('region', { name, exact: true });
@@ -27,8 +30,7 @@ const tileCount = async (page: Page, testId: string) => Number((await page.getBy
 
 describe('home dashboards by role', () => {
   it('shows the inspector the Dock queue and today’s lots, and the tile opens the Dock', async () => {
-    const api = (await (await signedIn(BASE, DEMO.inspector)).get('/api/dashboard')).body;
-    const { page, requests } = await home(DEMO.inspector);
+    const { page, requests, api } = await home(DEMO.inspector);
     await region(page, 'Dock').waitFor();
     await page.getByRole('region', { name: /^Today, / }).waitFor();
     expect(await tileCount(page, 'tile-dock')).toBe(api.dock.queue);
@@ -41,8 +43,7 @@ describe('home dashboards by role', () => {
   });
 
   it('shows the engineer NCRs, drift signals, SCAR steps and gauges; gauges due soon opens the filtered list', async () => {
-    const api = (await (await signedIn(BASE, DEMO.engineer)).get('/api/dashboard')).body;
-    const { page } = await home(DEMO.engineer);
+    const { page, api } = await home(DEMO.engineer);
     for (const name of ['Nonconformances', 'Corrective actions', 'Gauges']) await region(page, name).waitFor();
     expect(await tileCount(page, 'tile-ncrs')).toBe(api.ncrs.notClosed);
     expect(await tileCount(page, 'tile-drift')).toBe(api.driftSignals.open);
@@ -55,8 +56,7 @@ describe('home dashboards by role', () => {
   });
 
   it('shows a supplier its steps to answer and its lots on hold, and no one else’s', async () => {
-    const api = (await (await signedIn(BASE, DEMO.supplierSelby)).get('/api/dashboard')).body;
-    const { page } = await home(DEMO.supplierSelby);
+    const { page, api } = await home(DEMO.supplierSelby);
     await region(page, 'Corrective action steps to answer').waitFor();
     await region(page, 'Your lots').waitFor();
     expect(await tileCount(page, 'tile-on-hold')).toBe(api.lotsOnHold);
@@ -77,8 +77,7 @@ describe('home dashboards by role', () => {
   });
 
   it('shows the admin users by role and locked accounts', async () => {
-    const api = (await (await signedIn(BASE, DEMO.admin)).get('/api/dashboard')).body;
-    const { page } = await home(DEMO.admin);
+    const { page, api } = await home(DEMO.admin);
     await region(page, 'Users').waitFor();
     expect(await tileCount(page, 'tile-users')).toBe(api.users.total);
     await page.getByRole('link', { name: /^Locked accounts: \d+$/ }).waitFor();
