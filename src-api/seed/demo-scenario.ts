@@ -19,6 +19,11 @@ import type { Characteristic, Plan } from '../../shared/schemas/master-data';
 import type { SessionUser } from '../../shared/schemas/auth';
 import type { ReadingInput } from '../../shared/schemas/receiving';
 import { Random } from './random';
+import { NcrsService } from '../ncrs/ncrs.service';
+import { CorrectiveActionsService } from '../corrective-actions/corrective-actions.service';
+import { UsersRepository } from '../users/users.repository';
+import { toSessionUser } from '../auth/auth.service';
+import { DEMO_PASSWORD } from './demo-users';
 
 const DAY = 86_400_000;
 
@@ -182,5 +187,54 @@ export async function seedDemoScenario(app: INestApplicationContext, users: { in
       });
     }
   }
+  if (rejectedLotId) await reviewRejectedLot(app, users, rejectedLotId);
   return { lots: total, rejectedLotId };
+}
+
+/**
+ * The newest Northgate lot was rejected for burr: raise its NCR, review it, disposition it
+ * (sort the lot, scrap the two cores measured over the limit, e-signed), and issue the SCAR.
+ * Northgate has answered containment (D3, accepted); the root cause (D4) is still owed.
+ */
+async function reviewRejectedLot(app: INestApplicationContext, users: { inspector: SessionUser; engineer: SessionUser }, lotId: string): Promise<void> {
+  const ncrs = app.get(NcrsService);
+  const scars = app.get(CorrectiveActionsService);
+  const lots = app.get(LotsService);
+  const { engineer } = users;
+  const l = await lots.get(engineer, lotId);
+  const at = new Date(l.receivedAt).getTime();
+  const ncr = await runAsOf(new Date(at + 4 * 3600_000), () =>
+    ncrs.create(engineer, {
+      lotId,
+      title: 'Burr height over the limit on slot edges',
+      requirement: 'Burr height at most 50 µm at every measured position (plan characteristic BURR).',
+      found: 'Cores 4 and 9 of the sample measured 55–57 µm on the slot edges; the other cores 38–49 µm, with the lot-to-lot trend rising for two months.',
+      defectCodes: ['BURR'],
+      suspectQuantity: l.quantity,
+    }),
+  );
+  const reviewing = await runAsOf(new Date(at + 20 * 3600_000), () => ncrs.transition(engineer, ncr.id, { to: 'in-review', version: ncr.version, note: 'Review board: quality, winding and purchasing' }));
+  await runAsOf(new Date(at + 22 * 3600_000), () =>
+    ncrs.disposition(engineer, ncr.id, {
+      version: reviewing.version,
+      lines: [
+        { kind: 'sort', quantity: l.quantity - 2, rationale: '100 % burr check of the lot at receiving; cores within 50 µm released to winding.', hours: 9, rate: 42 },
+        { kind: 'scrap', quantity: 2, rationale: 'The two cores measured over the limit: burr on slot edges risks slot-liner damage.', scrapValue: 2 * 38.5 },
+      ],
+      signature: { password: DEMO_PASSWORD, meaning: 'I approve this disposition' },
+    }),
+  );
+  const scar = await runAsOf(new Date(at + 23 * 3600_000), () => scars.create(engineer, { ncrId: ncr.id }));
+  const supplierUser = await app.get(UsersRepository).byEmail('quality@northgate-lamination.test');
+  if (!supplierUser) return;
+  const sup = toSessionUser(supplierUser);
+  let cur = await runAsOf(new Date(at + 30 * 3600_000), () => scars.get(sup, scar.id));
+  cur = await runAsOf(new Date(at + 31 * 3600_000), () =>
+    scars.putStep(sup, scar.id, 'D3', {
+      answer: { actions: 'Stock at Northgate and the two pallets in transit checked for burr with a gauge on every slot edge; cores over 45 µm held.', atSupplier: { checked: 640, nonconforming: 9 }, inTransit: { checked: 380, nonconforming: 2 }, cleanMark: 'Green dot on the pallet label', effectiveFrom: new Date(at + 31 * 3600_000).toISOString().slice(0, 10) },
+      submit: true,
+      version: cur.version,
+    }),
+  );
+  await runAsOf(new Date(at + 34 * 3600_000), () => scars.reviewStep(engineer, scar.id, 'D3', { decision: 'accept', version: cur.version, comment: 'Containment accepted. Root cause and the die service plan are next.' }));
 }
