@@ -99,6 +99,10 @@ export const POLICY: Record<string, Rule> = {
   'GET /api/exports/readings.csv': { allow: RECORD_READ },
   'GET /api/exports/audit-events.csv': { allow: RECORD_READ },
   'GET /api/exports/lots/{id}/report.pdf': { allow: RECORD_READ },
+  'GET /api/exports/ncrs.csv': { allow: RECORD_READ },
+  'GET /api/exports/corrective-actions.csv': { allow: RECORD_READ },
+  'GET /api/exports/ncrs/{id}/report.pdf': { allow: RECORD_READ },
+  'GET /api/exports/corrective-actions/{id}/report.pdf': { allow: RECORD_READ },
 
   'GET /api/scorecards': { allow: ['engineer', 'auditor', 'admin', 'supplier'], supplier: 'own' },
   'GET /api/scorecards/{supplierId}': { allow: ['engineer', 'auditor', 'admin', 'supplier'], supplier: 'own' },

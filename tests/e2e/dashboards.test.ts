@@ -13,8 +13,10 @@ afterAll(async () => {
 });
 
 async function home(email: string): Promise<{ page: Page; requests: string[]; api: Record<string, any> }> {
-  await ctx.clearCookies();
-  const page = await ctx.newPage();
+  // A fresh browser per role: nothing of the previous role's session or page state carries over.
+  await ctx?.close();
+  ctx = await launchBrowser({ width: 1366, height: 900 });
+  const page = ctx.pages()[0] ?? (await ctx.newPage());
   const requests = watchRequests(page);
   await signIn(page, BASE, email);
   await page.waitForURL(`${BASE}/`);

@@ -156,8 +156,9 @@ describe('gauge CSV import', () => {
     // ── The same file again: recognised, not imported twice.
     await page.getByRole('button', { name: 'Import gauge CSV' }).click();
     await dialog.getByLabel('Gauge CSV file').setInputFiles(good);
-    await chooseGauge(dialog, 'BORE', 'bore gauge', boreTag);
-    await chooseGauge(dialog, 'BURR', 'burr gauge', burrTag);
+    // The gauges the lot's readings were taken with are chosen again.
+    await expect.poll(async () => (await dialog.getByLabel('Gauge for BORE (bore gauge)').locator('option:checked').textContent()) ?? '').toContain(boreTag);
+    await expect.poll(async () => (await dialog.getByLabel('Gauge for BURR (burr gauge)').locator('option:checked').textContent()) ?? '').toContain(burrTag);
     await dialog.getByRole('button', { name: 'Import', exact: true }).click();
     await dialog.getByText('Already imported').waitFor();
     await dialog.getByText(/already imported into this lot .*not imported again/).waitFor();

@@ -303,6 +303,13 @@ export interface Compared {
 /** Same number, allowing for the last digits JSON and a different CPU may change. */
 export const agrees = (a: number | null, b: number | null) => (a == null || b == null ? a == null && b == null : Math.abs(a - b) <= 1e-9 * Math.max(1, Math.abs(a), Math.abs(b)));
 
+/** The two results to the last digit: the shown figures are rounded, so say how far apart they are. */
+function difference(a: number | null, b: number | null): string {
+  if (a == null || b == null) return a == null && b == null ? '(both none)' : '';
+  const d = Math.abs(a - b);
+  return d === 0 ? '(identical to the last digit)' : `(apart by ${d.toExponential(1)})`;
+}
+
 export interface ServerCheckState<R> {
   /** The inputs sent, as JSON: the check speaks for those inputs only. */
   key: string;
@@ -338,6 +345,7 @@ export function ServerCheck({ label, checked, currentKey, compared, submitting, 
               <span className={s.muted}>{c.label}:</span>
               <span>browser {c.text(c.local)}</span>
               <span>· server {c.text(c.server)}</span>
+              <span className={s.muted}>{difference(c.local, c.server)}</span>
               {agrees(c.local, c.server) ? null : <StatusPill tone="bad">differs</StatusPill>}
             </span>
           ))}

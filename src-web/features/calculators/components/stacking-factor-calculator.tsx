@@ -88,7 +88,7 @@ function ByCountBody({ form }: { form: UseFormReturn<ByCountInput> }) {
         note={
           sf != null ? (
             <Caption1 className={s.muted}>
-              {typical ? `Typical minimum for ${parsed.data?.thicknessMm} mm strip: ${typical.minimum} (${typical.source}); the plan's limit governs.` : 'No typical minimum on record for this thickness; the plan’s limit comes from the drawing.'} Computed in the browser only: the API checks cores by mass.
+              {typical ? `Typical minimum for ${parsed.data?.thicknessMm} mm strip: ${typical.minimum}, per ${typical.source}; the plan's limit governs.` : 'No typical minimum on record for this thickness; the plan’s limit comes from the drawing.'} Computed in the browser only: the API checks cores by mass.
             </Caption1>
           ) : null
         }

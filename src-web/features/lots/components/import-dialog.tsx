@@ -55,7 +55,9 @@ const useStyles = makeStyles({
   td: { padding: '3px 8px', borderBottom: `1px solid ${tokens.colorNeutralStroke3}`, whiteSpace: 'nowrap' },
   lineNo: { color: tokens.colorNeutralForeground3, textAlign: 'right' },
   mapped: { backgroundColor: tokens.colorBrandBackground2 },
-  badRow: { backgroundColor: tokens.colorPaletteRedBackground1, boxShadow: `inset 3px 0 0 ${tokens.colorPaletteRedBorder2}` },
+  badRow: { boxShadow: `inset 3px 0 0 ${tokens.colorPaletteRedBorder2}` },
+  // Over the mapped-column tint too: the row the server named must stand out whole.
+  badCell: { backgroundColor: tokens.colorPaletteRedBackground2, fontWeight: 600 },
   mapGrid: { display: 'flex', flexDirection: 'column', gap: '12px' },
   charBox: { border: `1px solid ${tokens.colorNeutralStroke2}`, borderRadius: tokens.borderRadiusLarge, padding: '10px 12px', margin: 0, minWidth: 0 },
   charBad: { border: `2px solid ${tokens.colorPaletteRedBorder2}` },
@@ -83,7 +85,7 @@ const useStyles = makeStyles({
   problems: { margin: '6px 0 0', paddingLeft: '20px', display: 'flex', flexDirection: 'column', gap: '2px' },
   lines: { margin: '8px 0 0', paddingLeft: '20px', display: 'flex', flexDirection: 'column', gap: '3px', fontVariantNumeric: 'tabular-nums', maxHeight: '220px', overflowY: 'auto' },
   progress: { display: 'flex', flexDirection: 'column', gap: '4px' },
-  status: { flexDirection: 'column', alignItems: 'stretch', justifyContent: 'center', gap: '4px', minWidth: '240px', alignSelf: 'center' },
+  status: { flexDirection: 'column', alignItems: 'stretch', justifyContent: 'center', gap: '4px', width: '100%', maxWidth: '520px', alignSelf: 'center' },
   cellCut: { maxWidth: '28ch', overflow: 'hidden', textOverflow: 'ellipsis' },
   summary: { padding: '10px 14px', borderRadius: tokens.borderRadiusLarge, backgroundColor: tokens.colorNeutralBackground3, display: 'flex', flexDirection: 'column', gap: '4px' },
 });
@@ -361,8 +363,8 @@ function ImportBody({ lot, plan, unsentOnSheet, onClose, onSucceeded, onSaving }
   const [phase, setPhase] = useState<Phase>({ kind: 'idle' });
   const outcome = useRef<HTMLDivElement>(null);
   useEffect(() => {
-    // The outcome is below the mapping: bring it into view when it arrives.
-    if (phase.kind !== 'idle' && phase.kind !== 'sending' && phase.kind !== 'saving') outcome.current?.scrollIntoView({ block: 'nearest', behavior: 'smooth' });
+    // The outcome sits above the preview and mapping: bring it into view when it arrives.
+    if (phase.kind !== 'idle' && phase.kind !== 'sending' && phase.kind !== 'saving') outcome.current?.scrollIntoView({ block: 'nearest' });
   }, [phase.kind]);
   useEffect(() => () => abort.current?.abort(), []);
 
@@ -374,18 +376,26 @@ function ImportBody({ lot, plan, unsentOnSheet, onClose, onSucceeded, onSaving }
     return { list: gaugeQs[i]?.data?.items ?? [], loading: !!gaugeQs[i]?.isPending };
   };
   const gaugeData = gaugeQs.map((q) => q.data);
+  const lastGauge = useMemo(() => {
+    const m = new Map<string, string>();
+    for (const r of [...lot.readings].sort((a, b) => a.enteredAt.localeCompare(b.enteredAt))) if (r.gaugeId) m.set(r.characteristicCode, r.gaugeId);
+    return m;
+  }, [lot.readings]);
   useEffect(() => {
-    // The only gauge of the kind in calibration is chosen for you; with several, the inspector picks.
+    // The gauge this lot's readings were last taken with, while it is still in calibration; else
+    // the only one of the kind in calibration; with several, the inspector picks.
     const auto: Record<string, string> = {};
     for (const c of chars) {
       if (!c.gaugeKind || gaugeBy[c.code]) continue;
       const i = kinds.indexOf(c.gaugeKind);
       const usable = (gaugeData[i]?.items ?? []).filter(usableGauge);
-      if (usable.length === 1) auto[c.code] = usable[0].id;
+      const used = lastGauge.get(c.code);
+      if (used && usable.some((g) => g.id === used)) auto[c.code] = used;
+      else if (usable.length === 1) auto[c.code] = usable[0].id;
     }
     if (Object.keys(auto).length) setGaugeBy((g) => ({ ...g, ...auto }));
     // eslint-disable-next-line react-hooks/exhaustive-deps
-  }, [chars, kinds, gaugeBy, ...gaugeData]);
+  }, [chars, kinds, gaugeBy, lastGauge, ...gaugeData]);
 
   const choose = async (f: File | null) => {
     if (!f) return;
@@ -486,6 +496,47 @@ function ImportBody({ lot, plan, unsentOnSheet, onClose, onSucceeded, onSaving }
           />
         </div>
         {readError ? <MessageBar intent="error"><MessageBarBody>{readError}</MessageBarBody></MessageBar> : null}
+        <div aria-live="polite" ref={outcome} className={s.progress}>
+          {phase.kind === 'done' ? (
+            <MessageBar intent="success" layout="multiline">
+              <MessageBarBody>
+                <MessageBarTitle>Imported</MessageBarTitle>
+                {phase.result.rows} row{phase.result.rows === 1 ? '' : 's'}, {phase.result.readings} reading{phase.result.readings === 1 ? '' : 's'} from {phase.fileName}. Close this window to see them on the bench sheet.
+              </MessageBarBody>
+            </MessageBar>
+          ) : phase.kind === 'refused' ? (
+            <MessageBar intent="error" layout="multiline">
+              <MessageBarBody>
+                <MessageBarTitle>Nothing was imported</MessageBarTitle>
+                {phase.message.replace(/\.$/, '')}. Fix the file and choose it again: the columns you mapped are kept.
+                {phase.rows.length ? (
+                  <ol className={s.lines} aria-label="Row problems">
+                    {phase.rows.map((r) => <li key={r}>{r}</li>)}
+                  </ol>
+                ) : null}
+                {phase.other.length ? (
+                  <ul className={s.problems} aria-label="Other problems">
+                    {phase.other.map((r) => <li key={r}>{r}</li>)}
+                  </ul>
+                ) : null}
+              </MessageBarBody>
+            </MessageBar>
+          ) : phase.kind === 'duplicate' ? (
+            <MessageBar intent="warning" layout="multiline">
+              <MessageBarBody>
+                <MessageBarTitle>Already imported</MessageBarTitle>
+                {phase.message}
+              </MessageBarBody>
+            </MessageBar>
+          ) : phase.kind === 'failed' ? (
+            <MessageBar intent="error" layout="multiline">
+              <MessageBarBody>
+                <MessageBarTitle>The import did not go through</MessageBarTitle>
+                {phase.message}
+              </MessageBarBody>
+            </MessageBar>
+          ) : null}
+        </div>
         {csv?.warnings.length ? (
           <MessageBar intent="warning">
             <MessageBarBody>The file has irregular quoting; check the preview. {csv.warnings.join('; ')}</MessageBarBody>
@@ -513,9 +564,9 @@ function ImportBody({ lot, plan, unsentOnSheet, onClose, onSucceeded, onSaving }
                 <tbody>
                   {csv.rows.slice(0, PREVIEW_ROWS).map((r, i) => (
                     <tr key={i} className={badLines.has(i + 2) ? s.badRow : undefined}>
-                      <td className={mergeClasses(s.td, s.lineNo)}>{i + 2}</td>
+                      <td className={mergeClasses(s.td, s.lineNo, badLines.has(i + 2) ? s.badCell : undefined)}>{i + 2}</td>
                       {csv.header.map((h, j) => (
-                        <td key={j} className={mergeClasses(s.td, s.cellCut, colTags.has(h) && csv.header.indexOf(h) === j ? s.mapped : undefined)} title={(r[j] ?? '').length > 28 ? r[j] : undefined}>{(r[j] ?? '').slice(0, 200)}</td>
+                        <td key={j} className={mergeClasses(s.td, s.cellCut, colTags.has(h) && csv.header.indexOf(h) === j ? s.mapped : undefined, badLines.has(i + 2) ? s.badCell : undefined)} title={(r[j] ?? '').length > 28 ? r[j] : undefined}>{(r[j] ?? '').slice(0, 200)}</td>
                       ))}
                     </tr>
                   ))}
@@ -565,47 +616,6 @@ function ImportBody({ lot, plan, unsentOnSheet, onClose, onSucceeded, onSaving }
           </div>
         ) : null}
 
-        <div aria-live="polite" ref={outcome} className={s.progress}>
-          {phase.kind === 'done' ? (
-            <MessageBar intent="success" layout="multiline">
-              <MessageBarBody>
-                <MessageBarTitle>Imported</MessageBarTitle>
-                {phase.result.rows} row{phase.result.rows === 1 ? '' : 's'}, {phase.result.readings} reading{phase.result.readings === 1 ? '' : 's'} from {phase.fileName}. Close this window to see them on the bench sheet.
-              </MessageBarBody>
-            </MessageBar>
-          ) : phase.kind === 'refused' ? (
-            <MessageBar intent="error" layout="multiline">
-              <MessageBarBody>
-                <MessageBarTitle>Nothing was imported</MessageBarTitle>
-                {phase.message}. Fix the file and choose it again: the columns you mapped are kept.
-                {phase.rows.length ? (
-                  <ol className={s.lines} aria-label="Row problems">
-                    {phase.rows.map((r) => <li key={r}>{r}</li>)}
-                  </ol>
-                ) : null}
-                {phase.other.length ? (
-                  <ul className={s.problems} aria-label="Other problems">
-                    {phase.other.map((r) => <li key={r}>{r}</li>)}
-                  </ul>
-                ) : null}
-              </MessageBarBody>
-            </MessageBar>
-          ) : phase.kind === 'duplicate' ? (
-            <MessageBar intent="warning" layout="multiline">
-              <MessageBarBody>
-                <MessageBarTitle>Already imported</MessageBarTitle>
-                {phase.message}
-              </MessageBarBody>
-            </MessageBar>
-          ) : phase.kind === 'failed' ? (
-            <MessageBar intent="error" layout="multiline">
-              <MessageBarBody>
-                <MessageBarTitle>The import did not go through</MessageBarTitle>
-                {phase.message}
-              </MessageBarBody>
-            </MessageBar>
-          ) : null}
-        </div>
       </DialogContent>
       {/* Beside the buttons, so the progress is in view however far the mapping scrolls. */}
       <DialogActions position="start" className={s.status}>
