@@ -28,6 +28,16 @@ const READING_COLUMNS = cols([
   'kind', 'value', 'unit', 'lsl', 'usl', 'raw_readings', 'pass', 'conforming', 'gauge_asset_tag', 'gauge_due_on_at_time', 'entered_by',
   'entered_at', 'source', 'note',
 ]);
+const NCR_COLUMNS = cols([
+  'ncr_number', 'status', 'source', 'title', 'supplier_code', 'supplier_name', 'part_number', 'part_revision', 'lot_ref', 'supplier_lot_number',
+  'characteristic', 'requirement', 'found', 'defect_codes', 'suspect_quantity', 'raised_by', 'raised_at', 'dispositioned_at', 'dispositions',
+  'disposed_quantity', 'total_cost', 'signatures', 'scar_numbers', 'closed_at',
+]);
+const SCAR_COLUMNS = cols([
+  'scar_number', 'status', 'title', 'supplier_code', 'supplier_name', 'part_number', 'part_revision', 'ncr_number', 'defect_codes', 'recipients',
+  'issued_by', 'issued_at', 'acknowledged_at', 'accepted_at', 'closed_at', 'steps_accepted', 'steps_waiting_review', 'steps_returned',
+  'next_due_step', 'next_due_on', 'verify_lots_passed', 'verify_lots_required',
+]);
 const AUDIT_COLUMNS = cols(['id', 'at', 'actor_email', 'action', 'entity', 'entity_id', 'reason', 'before', 'after', 'prev_hash', 'hash']);
 
 /**
@@ -110,5 +120,46 @@ export class CsvExportsService {
     const select = sql`id::text as id, ${ts('at')} as at, actor_email, action, entity, entity_id, reason, before, after, prev_hash, hash`;
     // Same order as the list: newest first unless sort=at.
     return this.stream(res, 'audit-events', sql`from audit_event where ${where}`, select, q.sort === 'at' ? sql`order by audit_event.id asc` : sql`order by audit_event.id desc`, AUDIT_COLUMNS);
+  }
+  /** One row per NCR, oldest first; dispositions summarised as "scrap 40; sort 60" with their total cost. */
+  ncrs(res: Response): Promise<void> {
+    const from = sql`from ncr n
+      left join supplier s on s.id = n.supplier_id
+      left join part p on p.id = n.part_id
+      left join lot l on l.id = n.lot_id
+      left join app_user u on u.id = n.raised_by`;
+    const select = sql`n.number as ncr_number, n.status, n.source, n.title, s.code as supplier_code, s.name as supplier_name,
+      p.part_number, p.revision as part_revision, l.ref as lot_ref, l.supplier_lot_number, n.characteristic_code as characteristic,
+      n.requirement, n.found, n.defect_codes, n.suspect_quantity, u.email as raised_by, ${ts('n.raised_at')} as raised_at,
+      ${ts('n.dispositioned_at')} as dispositioned_at,
+      (select string_agg(d.kind || ' ' || d.quantity, '; ' order by d.seq) from disposition d where d.ncr_id = n.id) as dispositions,
+      (select sum(d.quantity)::int from disposition d where d.ncr_id = n.id) as disposed_quantity,
+      (select round(sum(d.cost)::numeric, 2)::float8 from disposition d where d.ncr_id = n.id) as total_cost,
+      (select string_agg(es.signer_email || ' (' || es.purpose || ')', '; ' order by es.signed_at) from e_signature es where es.entity = 'ncr' and es.entity_id = n.id) as signatures,
+      (select string_agg(ca.number, '; ' order by ca.issued_at) from corrective_action ca where ca.ncr_id = n.id) as scar_numbers,
+      ${ts('n.closed_at')} as closed_at`;
+    return this.stream(res, 'ncrs', from, select, sql`order by n.raised_at, n.number`, NCR_COLUMNS);
+  }
+
+  /** One row per corrective action request, oldest first, with where its 8D steps stand. */
+  correctiveActions(res: Response): Promise<void> {
+    const from = sql`from corrective_action ca
+      join supplier s on s.id = ca.supplier_id
+      join ncr n on n.id = ca.ncr_id
+      left join part p on p.id = ca.part_id
+      left join app_user u on u.id = ca.issued_by`;
+    const steps = (status: string) => sql.raw(`(select count(*)::int from corrective_action_step st where st.corrective_action_id = ca.id and st.status = '${status}')`);
+    const select = sql`ca.number as scar_number, ca.status, ca.title, s.code as supplier_code, s.name as supplier_name, p.part_number,
+      p.revision as part_revision, n.number as ncr_number, ca.defect_codes, ca.recipients, u.email as issued_by, ${ts('ca.issued_at')} as issued_at,
+      ${ts('ca.acknowledged_at')} as acknowledged_at, ${ts('ca.accepted_at')} as accepted_at, ${ts('ca.closed_at')} as closed_at,
+      ${steps('accepted')} as steps_accepted, ${steps('submitted')} as steps_waiting_review, ${steps('returned')} as steps_returned,
+      nd.step as next_due_step, nd.due_on::text as next_due_on, jsonb_array_length(ca.verify_lots)::int as verify_lots_passed,
+      ca.verify_lots_required`;
+    // The earliest due date among the steps still with the supplier.
+    const withNext = sql`${from}
+      left join lateral (select st.step, st.due_on from corrective_action_step st
+        where st.corrective_action_id = ca.id and st.status in ('open', 'returned') and st.due_on is not null
+        order by st.due_on, st.step limit 1) nd on true`;
+    return this.stream(res, 'corrective-actions', withNext, select, sql`order by ca.issued_at, ca.number`, SCAR_COLUMNS);
   }
 }

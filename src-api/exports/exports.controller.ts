@@ -7,6 +7,7 @@ import { ZodPipe } from '../common/zod.pipe';
 import { ApiQueryOf, ApiResult } from '../common/openapi';
 import { CsvExportsService } from './csv-exports.service';
 import { LotReportService } from './lot-report.service';
+import { NcrReportsService } from './ncr-reports.service';
 import { exportFileName } from './csv-stream';
 import { idParamSchema } from '../../shared/schemas/common';
 import type { SessionUser } from '../../shared/schemas/auth';
@@ -23,6 +24,7 @@ export class ExportsController {
   constructor(
     private readonly csv: CsvExportsService,
     private readonly report: LotReportService,
+    private readonly ncrReports: NcrReportsService,
   ) {}
 
   @Get('lots.csv')
@@ -70,4 +72,53 @@ export class ExportsController {
     res.setHeader('X-Content-Type-Options', 'nosniff');
     res.end(pdf);
   }
+  @Get('ncrs.csv')
+  @Roles(...EXPORTERS)
+  @ApiOperation({ summary: 'NCRs as CSV, streamed, oldest first: one row per NCR with its disposition totals' })
+  @ApiProduces('text/csv')
+  @ApiResult(csvBody)
+  ncrs(@Res() res: Response): Promise<void> {
+    return this.csv.ncrs(res);
+  }
+
+  @Get('corrective-actions.csv')
+  @Roles(...EXPORTERS)
+  @ApiOperation({ summary: 'Corrective action requests (SCARs) as CSV, streamed, oldest first: one row per request with its step counts' })
+  @ApiProduces('text/csv')
+  @ApiResult(csvBody)
+  correctiveActions(@Res() res: Response): Promise<void> {
+    return this.csv.correctiveActions(res);
+  }
+
+  @Get('ncrs/:id/report.pdf')
+  @Roles(...EXPORTERS)
+  @ApiOperation({ summary: 'The NCR report as PDF: requirement and finding, dispositions with cost, e-signatures with their hashes, photos' })
+  @ApiProduces('application/pdf')
+  @ApiResult(z.string().describe('PDF'))
+  async ncrReport(@CurrentUser() user: SessionUser, @Param(new ZodPipe(idParamSchema)) p: { id: string }, @Res() res: Response): Promise<void> {
+    const { pdf, number } = await this.ncrReports.renderNcr(p.id, user);
+    sendPdf(res, pdf, exportFileName(`${number}-report`, 'pdf'));
+  }
+
+  @Get('corrective-actions/:id/report.pdf')
+  @Roles(...EXPORTERS)
+  @ApiOperation({ summary: 'The 8D report of a corrective action request as PDF: each step with status, due date, answer and review' })
+  @ApiProduces('application/pdf')
+  @ApiResult(z.string().describe('PDF'))
+  async scarReport(@CurrentUser() user: SessionUser, @Param(new ZodPipe(idParamSchema)) p: { id: string }, @Res() res: Response): Promise<void> {
+    const { pdf, number } = await this.ncrReports.renderScar(p.id, user);
+    sendPdf(res, pdf, exportFileName(`${number}-8d-report`, 'pdf'));
+  }
+}
+
+/** A rendered PDF as a download, with the same headers as the lot report. */
+function sendPdf(res: Response, pdf: Buffer, fileName: string): void {
+  res.status(200);
+  res.setHeader('Content-Type', 'application/pdf');
+  res.setHeader('Content-Length', String(pdf.length));
+  // Document numbers are [A-Z0-9-]; anything else is dropped so the header cannot be broken.
+  res.setHeader('Content-Disposition', `attachment; filename="${fileName.replace(/[^\w.-]/g, '')}"`);
+  res.setHeader('Cache-Control', 'no-store');
+  res.setHeader('X-Content-Type-Options', 'nosniff');
+  res.end(pdf);
 }

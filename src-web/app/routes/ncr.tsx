@@ -149,6 +149,8 @@ export function NcrPage() {
   const engineer = me?.role === 'engineer';
   const canAddPhotos = (me?.role === 'engineer' || me?.role === 'inspector') && n.status !== 'closed';
   const internalReader = me?.role !== 'supplier';
+  // The exports' own roles (auditor, engineer, admin); others would get a 403 file.
+  const exporter = me?.role === 'auditor' || me?.role === 'engineer' || me?.role === 'admin';
 
   return (
     <Page
@@ -158,6 +160,7 @@ export function NcrPage() {
         <div className={s.head}>
           <NcrStatusPill status={n.status} />
           {internalReader ? <Button className={s.touch} onClick={() => navigate(paths.ncrHoldTag(n.id))}>Print hold tag</Button> : null}
+          {exporter ? <a className={s.link} href={`/api/exports/ncrs/${n.id}/report.pdf`} download>Download NCR report (PDF)</a> : null}
           {engineer && n.status === 'open' ? (
             <Button className={s.touch} appearance="primary" disabled={move.isPending} onClick={() => move.mutate({ id: n.id, to: 'in-review', version: n.version })}>Start review</Button>
           ) : null}

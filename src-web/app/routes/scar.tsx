@@ -88,11 +88,13 @@ export function ScarPage() {
   }
   const c = scar.data;
   const engineer = me?.role === 'engineer';
+  // The exports' own roles (auditor, engineer, admin); others would get a 403 file.
+  const exporter = me?.role === 'auditor' || engineer || me?.role === 'admin';
   return (
     <Page
       title={c.number}
       lead={c.title}
-      actions={<div className={s.head}><ScarStatusPill status={c.status} />{engineer ? <Moves scar={c} /> : null}</div>}
+      actions={<div className={s.head}><ScarStatusPill status={c.status} />{exporter ? <a className={s.link} href={`/api/exports/corrective-actions/${c.id}/report.pdf`} download>Download 8D report (PDF)</a> : null}{engineer ? <Moves scar={c} /> : null}</div>}
     >
       {c.verification.recurrence ? (
         <MessageBar className={s.banner} intent="error"><MessageBarBody>The defect returned{c.verification.recurrence.ncrNumber ? ` in ${c.verification.recurrence.ncrNumber}` : ''}: reopen the request so the supplier looks at the cause again.</MessageBarBody></MessageBar>
