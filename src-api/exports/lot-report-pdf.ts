@@ -1,5 +1,4 @@
-import path from 'node:path';
-import PDFDocument from 'pdfkit';
+import { BAD, GOOD, INK, M, MUTED, ReportDoc, RULE, utc, type Cell } from './report-pdf';
 import type { StoredSampling } from '../../shared/schemas/receiving';
 
 export interface LotReportData {
@@ -36,160 +35,11 @@ export interface LotReportData {
   audit: { id: number; at: Date; action: string; actor: string | null; hash: string }[];
 }
 
-/** The product's shipped font, as TrueType: pdfkit cannot embed WOFF2. */
-const FONT_DIR = path.join(path.dirname(require.resolve('open-sans-fonts/package.json')), 'open-sans');
-const FONTS = {
-  regular: path.join(FONT_DIR, 'Regular/OpenSans-Regular.ttf'),
-  semibold: path.join(FONT_DIR, 'Semibold/OpenSans-Semibold.ttf'),
-  bold: path.join(FONT_DIR, 'Bold/OpenSans-Bold.ttf'),
-};
-
 export const REPORT_TITLE = 'Yokeline — Lot inspection report';
 
-const INK = '#1d2726';
-const MUTED = '#56625f';
-const TEAL = '#0c3d39';
-const RULE = '#c9d6d3';
-const ZEBRA = '#f1f6f5';
-const BAD = '#b3261e';
-const GOOD = '#1d7a3e';
-
-const M = { top: 64, bottom: 56, left: 48, right: 48 };
-
-export const utc = (d: Date | null | undefined): string => (d ? `${d.toISOString().slice(0, 16).replace('T', ' ')} UTC` : '—');
+export { utc };
 /** Numbers as measured: no float noise, at most 4 decimals. */
 export const num = (v: number | null | undefined): string => (v == null ? '—' : String(Number(v.toFixed(4))));
-
-interface Col {
-  header: string;
-  width: number;
-  align?: 'left' | 'right' | 'center';
-}
-interface Cell {
-  text: string;
-  colour?: string;
-  bold?: boolean;
-}
-
-type Doc = PDFKit.PDFDocument;
-
-class Report {
-  readonly doc: Doc;
-  private readonly width: number;
-
-  constructor(private readonly d: LotReportData) {
-    this.doc = new PDFDocument({
-      size: 'A4',
-      margins: M,
-      bufferPages: true,
-      font: FONTS.regular,
-      info: { Title: `${REPORT_TITLE} — lot ${d.lot.ref}`, Author: 'Yokeline', Subject: `Lot ${d.lot.ref}, ${d.part.number} rev ${d.part.revision}`, Creator: 'Yokeline' },
-    });
-    this.doc.registerFont('regular', FONTS.regular);
-    this.doc.registerFont('semibold', FONTS.semibold);
-    this.doc.registerFont('bold', FONTS.bold);
-    this.width = this.doc.page.width - M.left - M.right;
-  }
-
-  private get bottom(): number {
-    return this.doc.page.height - M.bottom;
-  }
-
-  ensure(h: number): void {
-    if (this.doc.y + h > this.bottom) this.doc.addPage();
-  }
-
-  heading(text: string): void {
-    // A heading never ends a page alone: room for it, a caption, a table header and rows.
-    this.ensure(100);
-    this.doc.moveDown(0.8);
-    this.doc.font('bold').fontSize(12).fillColor(TEAL).text(text, M.left, this.doc.y, { width: this.width });
-    const y = this.doc.y + 2;
-    this.doc.moveTo(M.left, y).lineTo(M.left + this.width, y).lineWidth(0.6).strokeColor(RULE).stroke();
-    this.doc.y = y + 6;
-    this.doc.font('regular').fontSize(9).fillColor(INK);
-  }
-
-  para(text: string, opts: { colour?: string; font?: 'regular' | 'semibold' | 'bold'; size?: number } = {}): void {
-    this.doc.font(opts.font ?? 'regular').fontSize(opts.size ?? 9).fillColor(opts.colour ?? INK);
-    this.ensure(this.doc.heightOfString(text, { width: this.width }) + 2);
-    this.doc.text(text, M.left, this.doc.y, { width: this.width });
-    this.doc.font('regular').fontSize(9).fillColor(INK);
-  }
-
-  /** Label / value pairs in two columns of pairs. */
-  facts(pairs: [string, string][]): void {
-    const colW = this.width / 2;
-    const labelW = 92;
-    for (let i = 0; i < pairs.length; i += 2) {
-      const row = pairs.slice(i, i + 2);
-      this.doc.fontSize(9);
-      const h = Math.max(...row.map(([, v]) => this.doc.font('regular').heightOfString(v || '—', { width: colW - labelW - 8 }))) + 4;
-      this.ensure(h);
-      const y = this.doc.y;
-      row.forEach(([k, v], j) => {
-        const x = M.left + j * colW;
-        this.doc.font('semibold').fillColor(MUTED).text(k, x, y, { width: labelW - 4 });
-        this.doc.font('regular').fillColor(INK).text(v || '—', x + labelW, y, { width: colW - labelW - 8 });
-      });
-      this.doc.y = y + h;
-    }
-  }
-
-  /** A table that breaks across pages and repeats its header row. */
-  table(cols: Col[], rows: Cell[][], caption?: string): void {
-    const pad = 3;
-    const drawHeader = () => {
-      const h = Math.max(...cols.map((c) => this.doc.font('semibold').fontSize(8).heightOfString(c.header, { width: c.width - 2 * pad }))) + 2 * pad;
-      const y = this.doc.y;
-      this.doc.rect(M.left, y, cols.reduce((s, c) => s + c.width, 0), h).fill(TEAL);
-      let x = M.left;
-      for (const c of cols) {
-        this.doc.font('semibold').fontSize(8).fillColor('#ffffff').text(c.header, x + pad, y + pad, { width: c.width - 2 * pad, align: c.align ?? 'left' });
-        x += c.width;
-      }
-      this.doc.y = y + h;
-    };
-    // Keep the caption, the header and the first rows together.
-    this.ensure(64);
-    if (caption) this.para(caption, { colour: MUTED, size: 8 });
-    drawHeader();
-    rows.forEach((row, ri) => {
-      const h = Math.max(...row.map((cell, i) => this.doc.font(cell.bold ? 'semibold' : 'regular').fontSize(8).heightOfString(cell.text, { width: cols[i].width - 2 * pad }))) + 2 * pad;
-      if (this.doc.y + h > this.bottom) {
-        this.doc.addPage();
-        drawHeader();
-      }
-      const y = this.doc.y;
-      if (ri % 2 === 1) this.doc.rect(M.left, y, cols.reduce((s, c) => s + c.width, 0), h).fill(ZEBRA);
-      let x = M.left;
-      row.forEach((cell, i) => {
-        this.doc.font(cell.bold ? 'semibold' : 'regular').fontSize(8).fillColor(cell.colour ?? INK).text(cell.text, x + pad, y + pad, { width: cols[i].width - 2 * pad, align: cols[i].align ?? 'left' });
-        x += cols[i].width;
-      });
-      this.doc.y = y + h;
-    });
-    this.doc.font('regular').fontSize(9).fillColor(INK);
-  }
-
-  /** Header and page numbers on every page, drawn once all pages exist. */
-  finish(): void {
-    const range = this.doc.bufferedPageRange();
-    for (let i = range.start; i < range.start + range.count; i++) {
-      this.doc.switchToPage(i);
-      // Writing inside the margins would otherwise start a new page.
-      const bottomMargin = this.doc.page.margins.bottom;
-      this.doc.page.margins.bottom = 0;
-      this.doc.font('bold').fontSize(10).fillColor(TEAL).text(REPORT_TITLE, M.left, 28, { width: this.width * 0.7, lineBreak: false });
-      this.doc.font('regular').fontSize(9).fillColor(MUTED).text(`Lot ${this.d.lot.ref} · ${this.d.part.number} rev ${this.d.part.revision}`, M.left + this.width * 0.5, 29, { width: this.width * 0.5, align: 'right', lineBreak: false });
-      this.doc.moveTo(M.left, 46).lineTo(M.left + this.width, 46).lineWidth(1.2).strokeColor('#b4652e').stroke();
-      const fy = this.doc.page.height - 36;
-      this.doc.font('regular').fontSize(8).fillColor(MUTED).text(`Generated ${utc(this.d.generatedAt)} by ${this.d.generatedBy}`, M.left, fy, { width: this.width * 0.7, lineBreak: false });
-      this.doc.text(`Page ${i - range.start + 1} of ${range.count}`, M.left + this.width * 0.6, fy, { width: this.width * 0.4, align: 'right', lineBreak: false });
-      this.doc.page.margins.bottom = bottomMargin;
-    }
-  }
-}
 
 function samplingLine(s: StoredSampling): string {
   if (s.kind === 'zero-acceptance') return `Zero-acceptance plan (c = 0): n = ${s.sampleSize}, accept on 0, reject on 1${s.inspectAll ? ', every core inspected' : ''}.`;
@@ -209,14 +59,9 @@ function resultCell(r: LotReportData['readings'][number] | undefined): Cell {
 
 /** Renders the report; the whole file is built in memory (it is bounded by MAX_PDF_CORES). */
 export function renderLotReport(d: LotReportData): Promise<Buffer> {
-  const r = new Report(d);
+  // The shared report layout (fonts, tables, running header and page numbers).
+  const r = new ReportDoc({ title: REPORT_TITLE, subject: `Lot ${d.lot.ref} · ${d.part.number} rev ${d.part.revision}`, generatedAt: d.generatedAt, generatedBy: d.generatedBy });
   const doc = r.doc;
-  const chunks: Buffer[] = [];
-  const done = new Promise<Buffer>((resolve, reject) => {
-    doc.on('data', (c: Buffer) => chunks.push(c));
-    doc.on('end', () => resolve(Buffer.concat(chunks)));
-    doc.on('error', reject);
-  });
 
   // ── Title
   doc.font('bold').fontSize(18).fillColor(INK).text(`Lot ${d.lot.ref}`, M.left, M.top, { continued: true });
@@ -340,7 +185,5 @@ export function renderLotReport(d: LotReportData): Promise<Buffer> {
   );
   r.para('Each record is chained by SHA-256 to the one before it; the History ledger verifies the whole chain.', { colour: MUTED, size: 8 });
 
-  r.finish();
-  doc.end();
-  return done;
+  return r.end();
 }
