@@ -5,8 +5,6 @@ import { getMeQueryOptions, useMe } from '../features/auth/api/get-me';
 import { paths } from '../config/paths';
 import { NAV } from '../config/nav';
 import { Shell } from './shell';
-import { SignInPage } from './routes/sign-in';
-import { HomePage } from './routes/home';
 import { NotFoundPage } from './routes/not-found';
 import { ArrivesSoon } from './routes/arrives-soon';
 import { RouteErrorBoundary } from './routes/error-boundary';
@@ -36,9 +34,16 @@ function ShellRoute() {
   return <Shell user={data ?? loaded} />;
 }
 
-function Home() {
-  const user = useLoaderData() as SessionUser;
-  return <HomePage user={user} />;
+// Sign-in and Home load on first visit like every other page: a signed-in inspector opening the
+// Dock downloads neither the sign-in form (react-hook-form, zod) nor the dashboards.
+async function homeRoute() {
+  const { HomePage } = await import('./routes/home');
+  return {
+    Component: function Home() {
+      const user = useLoaderData() as SessionUser;
+      return <HomePage user={user} />;
+    },
+  };
 }
 
 // Pages that later work fills in; each shows an honest empty state until then.
@@ -46,7 +51,7 @@ const built = new Set<string>([paths.admin, paths.plans, paths.suppliers, paths.
 const placeholders = NAV.filter((n) => !built.has(n.to)).map((n) => ({ path: n.to, element: <ArrivesSoon to={n.to} /> }));
 
 export const router = createBrowserRouter([
-  { path: paths.signIn, element: <SignInPage />, loader: signInLoader, errorElement: <RouteErrorBoundary /> },
+  { path: paths.signIn, loader: signInLoader, errorElement: <RouteErrorBoundary />, lazy: async () => ({ Component: (await import('./routes/sign-in')).SignInPage }) },
   // The hold tag prints alone on an A6 page, outside the app's frame.
   { path: paths.ncrHoldTag(':id'), loader: requireUser, errorElement: <RouteErrorBoundary />, lazy: async () => ({ Component: (await import('./routes/hold-tag')).HoldTagPage }) },
   {
@@ -57,7 +62,7 @@ export const router = createBrowserRouter([
     errorElement: <RouteErrorBoundary />,
     children: [
       { errorElement: <RouteErrorBoundary />, children: [
-        { index: true, element: <Home />, loader: requireUser },
+        { index: true, loader: requireUser, lazy: homeRoute },
         { path: paths.admin, lazy: async () => ({ Component: (await import('./routes/admin')).AdminPage }) },
         { path: paths.mailbox, lazy: async () => ({ Component: (await import('./routes/mailbox')).MailboxPage }) },
         // Master data loads on first visit too: the first download stays small for the dock.

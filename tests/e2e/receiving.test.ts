@@ -91,7 +91,8 @@ describe('receiving at the dock', () => {
     await page.getByRole('button', { name: 'Receive a lot' }).click();
     const form = page.getByRole('form', { name: 'Receive a lot' });
     await form.getByRole('combobox', { name: /^Supplier/ }).selectOption(supplierId);
-    expect(await form.getByLabel('Part revision').locator('option', { hasText: partLabel }).count()).toBe(1);
+    // The part list loads for the chosen supplier: wait for it, then there must be exactly one.
+    await expect.poll(() => form.getByLabel('Part revision').locator('option', { hasText: partLabel }).count()).toBe(1);
     await form.getByLabel('Part revision').selectOption(partId);
     const lotNumber = `NGL-${stamp()}`;
     await form.getByLabel('Supplier lot number').fill(lotNumber);
@@ -112,6 +113,8 @@ describe('receiving at the dock', () => {
     await page.waitForURL(/\/lots\/[0-9a-f-]{36}$/);
     const lotId = /\/lots\/([0-9a-f-]{36})$/.exec(page.url())![1];
     await page.getByText(/Lot \d+ received/).waitFor();
+    // The receive dialog's modal hid the app from assistive technology; leaving it must undo that.
+    await expect.poll(() => page.locator('#root').getAttribute('aria-hidden')).toBeNull();
     const sampling = page.getByRole('group', { name: 'Sampling' });
     await sampling.getByText('3 of 10').waitFor();
     await page.getByRole('link', { name: 'coc.pdf' }).waitFor();

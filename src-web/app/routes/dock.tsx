@@ -1,5 +1,5 @@
 import { Button, Caption1, Table, TableBody, TableCell, TableHeader, TableRow, makeStyles, tokens } from '@fluentui/react-components';
-import { useState } from 'react';
+import { lazy, Suspense, useState } from 'react';
 import { Link, useNavigate } from 'react-router-dom';
 import { Page } from '../../components/page';
 import { EmptyState } from '../../components/empty-state';
@@ -8,7 +8,6 @@ import { paths } from '../../config/paths';
 import { useMe } from '../../features/auth/api/get-me';
 import { useLots } from '../../features/lots/api/lots';
 import { LotStatusPill, formatAge, formatDateTime } from '../../features/lots/components/lot-status';
-import { ReceiveLotDialog } from '../../features/lots/components/receive-lot-dialog';
 import { statusColours } from '../../theme/theme';
 import { useThemeMode } from '../../theme/theme-mode';
 
@@ -23,6 +22,11 @@ const useStyles = makeStyles({
   count: { color: tokens.colorNeutralForeground2, marginBottom: '10px', display: 'block' },
 });
 
+// The receive form (react-hook-form, zod, the sampling tables) loads when it is first wanted: on
+// hover or focus of the button, so it is there by the time the button is pressed.
+const loadReceiveDialog = () => import('../../features/lots/components/receive-lot-dialog');
+const ReceiveLotDialog = lazy(async () => ({ default: (await loadReceiveDialog()).ReceiveLotDialog }));
+
 /** A lot waiting longer than a shift at the dock is worth a look (common practice). */
 const LONG_WAIT_H = 8;
 
@@ -33,6 +37,8 @@ export function DockPage() {
   const canReceive = me?.role === 'inspector' || me?.role === 'engineer';
   const [page, setPage] = useState(1);
   const [receiving, setReceiving] = useState(false);
+  // Once opened, the dialog stays mounted so that closing it animates and keeps its state tidy.
+  const [wanted, setWanted] = useState(false);
   // Refreshed every minute so the ages stay true on a screen left open at the dock.
   const lots = useLots({ page, pageSize: 50, status: 'waiting' }, 60_000);
   const items = lots.data?.items ?? [];
@@ -43,7 +49,7 @@ export function DockPage() {
     <Page
       title="Dock"
       lead="Lots waiting for inspection, oldest first. Receive a lot as it comes off the truck; the sample to pull is worked out for you."
-      actions={canReceive ? <Button appearance="primary" size="large" className={s.receive} onClick={() => setReceiving(true)}>Receive a lot</Button> : undefined}
+      actions={canReceive ? <Button appearance="primary" size="large" className={s.receive} onPointerEnter={() => void loadReceiveDialog()} onFocus={() => void loadReceiveDialog()} onClick={() => (setWanted(true), setReceiving(true))}>Receive a lot</Button> : undefined}
     >
       {lots.isPending ? (
         <Loading />
@@ -103,7 +109,11 @@ export function DockPage() {
           </TableFrame>
         </>
       )}
-      {canReceive ? <ReceiveLotDialog open={receiving} onClose={() => setReceiving(false)} /> : null}
+      {canReceive && wanted ? (
+        <Suspense fallback={null}>
+          <ReceiveLotDialog open={receiving} onClose={() => setReceiving(false)} />
+        </Suspense>
+      ) : null}
     </Page>
   );
 }

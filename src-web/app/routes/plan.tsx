@@ -1,5 +1,5 @@
 import {
-  Body1, Button, Caption1, MessageBar, MessageBarActions, MessageBarBody, MessageBarTitle, Subtitle2, Tab, TabList, Toast, ToastTitle, makeStyles, tokens, useToastController,
+  Body1, Button, Caption1, MessageBar, MessageBarActions, MessageBarBody, MessageBarTitle, Subtitle2, Tab, TabList, Toast, ToastTitle, Toaster, useId, makeStyles, tokens, useToastController,
   Dialog, DialogSurface, DialogBody, DialogTitle, DialogContent, DialogActions,
 } from '@fluentui/react-components';
 import { useEffect, useMemo, useRef, useState } from 'react';
@@ -18,7 +18,6 @@ import { PlanChanges } from '../../features/plans/components/plan-changes';
 import { ActivateDialog } from '../../features/plans/components/activate-dialog';
 import { draftFrom, toUpdateInput, validateDraft, type PlanDraft, type RowDraft } from '../../features/plans/components/plan-draft';
 import { useCanManageMasterData } from '../../features/auth/hooks/use-can';
-import { useToasterId } from '../providers';
 
 const useStyles = makeStyles({
   back: { color: tokens.colorBrandForeground1, textDecoration: 'none', display: 'inline-flex', minHeight: '32px', alignItems: 'center', marginBottom: '4px' },
@@ -51,7 +50,7 @@ function describeKey(key: string, rows: RowDraft[]): string {
   return FIELD_LABELS[key] ?? key;
 }
 
-function PlanEditor({ plan, tab }: { plan: Plan; tab: 'characteristics' | 'changes' }) {
+function PlanEditor({ plan, tab, toasterId }: { plan: Plan; tab: 'characteristics' | 'changes'; toasterId: string }) {
   const s = useStyles();
   const navigate = useNavigate();
   const canWrite = useCanManageMasterData();
@@ -69,7 +68,7 @@ function PlanEditor({ plan, tab }: { plan: Plan; tab: 'characteristics' | 'chang
   const update = useUpdatePlan();
   const revise = useRevisePlan();
   const siblings = usePlans({ partId: plan.partId, pageSize: 200, sort: '-revision' });
-  const { dispatchToast } = useToastController(useToasterId());
+  const { dispatchToast } = useToastController(toasterId);
 
   const baseline = useMemo(() => JSON.stringify(toUpdateInput(initial, 0)), [initial]);
   const dirty = editable && JSON.stringify(toUpdateInput(draft, 0)) !== baseline;
@@ -296,6 +295,7 @@ function PlanEditor({ plan, tab }: { plan: Plan; tab: 'characteristics' | 'chang
 export function PlanPage() {
   const { id = '', tab } = useParams();
   const plan = usePlan(id);
+  const toasterId = useId('plan-toaster');
   if (plan.isPending) return <Loading label="Loading the plan" />;
   if (plan.error) {
     return (
@@ -304,6 +304,11 @@ export function PlanPage() {
       </Page>
     );
   }
-  // A new version (saved, activated) starts a fresh working copy.
-  return <PlanEditor key={`${plan.data.id}:${plan.data.version}`} plan={plan.data} tab={tab === 'changes' ? 'changes' : 'characteristics'} />;
+  // A new version (saved, activated) starts a fresh working copy; the toaster outlives it.
+  return (
+    <>
+      <PlanEditor key={`${plan.data.id}:${plan.data.version}`} plan={plan.data} tab={tab === 'changes' ? 'changes' : 'characteristics'} toasterId={toasterId} />
+      <Toaster toasterId={toasterId} position="top-end" />
+    </>
+  );
 }
