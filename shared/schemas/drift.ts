@@ -179,6 +179,9 @@ export const driftSignalSchema = z.object({
   ackNote: z.string().nullable(),
   ackBy: z.string().nullable(),
   ackAt: z.string().nullable(),
+  /** The nonconformance the signal was taken into (status 'ncr-opened'). */
+  ncrId: z.string().nullable(),
+  ncrNumber: z.string().nullable(),
   createdAt: z.string(),
 });
 export type DriftSignal = z.infer<typeof driftSignalSchema>;

@@ -2,7 +2,7 @@ import { ConflictException, Inject, Injectable } from '@nestjs/common';
 import { and, asc, count, desc, eq, ilike, inArray, ne, or, sql, type SQL } from 'drizzle-orm';
 import { CONFIG, type AppConfig } from '../config';
 import { DB, type Db, type DbOrTx, type Tx } from '../db/client';
-import { appUser, auditEvent, correctiveAction, disposition, eSignature, lot, lotSample, ncr, ncrPhoto, part, photo, planCharacteristic, reading, supplier } from '../db/schema';
+import { appUser, auditEvent, correctiveAction, disposition, driftSignal, eSignature, lot, lotSample, ncr, ncrPhoto, part, photo, planCharacteristic, reading, supplier } from '../db/schema';
 import { AuditRepository } from '../audit/audit.repository';
 import { UsersRepository } from '../users/users.repository';
 import { notFound, stale } from '../common/errors';
@@ -235,6 +235,26 @@ export class NcrsService {
         if (supplierId && !(await tx.select({ id: supplier.id }).from(supplier).where(eq(supplier.id, supplierId))).length) fields.supplierId = 'No such supplier';
         if (partId && !(await tx.select({ id: part.id }).from(part).where(eq(part.id, partId))).length) fields.partId = 'No such part';
       }
+      // Taken from a drift signal: the signal names the supplier, part and characteristic; its row
+      // lock serialises two engineers opening an NCR from the same signal.
+      let signalRow: typeof driftSignal.$inferSelect | undefined;
+      let characteristicCode = input.characteristicCode ?? null;
+      if (input.signalId) {
+        [signalRow] = await tx.select().from(driftSignal).where(eq(driftSignal.id, input.signalId)).for('update');
+        if (!signalRow) fields.signalId = 'No such drift signal';
+        else {
+          if (signalRow.status === 'ncr-opened') {
+            const [taken] = signalRow.ncrId ? await tx.select({ number: ncr.number }).from(ncr).where(eq(ncr.id, signalRow.ncrId)) : [];
+            throw new ConflictException({ error: 'conflict', message: `This signal was already taken into ${taken?.number ?? 'a nonconformance'}; add to that report instead.` });
+          }
+          if (supplierId && supplierId !== signalRow.supplierId) fields.supplierId = 'This is not the supplier of the signal';
+          if (partId && partId !== signalRow.partId) fields.partId = 'This is not the part of the signal';
+          if (characteristicCode && characteristicCode !== signalRow.characteristicCode) fields.characteristicCode = 'This is not the characteristic of the signal';
+          supplierId = signalRow.supplierId;
+          partId = signalRow.partId;
+          characteristicCode = signalRow.characteristicCode;
+        }
+      }
       if (Object.keys(fields).length) throw new ValidationFailed(fields);
       await this.codes.assertUsable(tx, input.defectCodes);
 
@@ -256,7 +276,7 @@ export class NcrsService {
           lotId: lotRow?.id ?? null,
           supplierId,
           partId,
-          characteristicCode: input.characteristicCode ?? null,
+          characteristicCode,
           signalId: input.signalId ?? null,
           sampleIds,
           readingIds,
@@ -281,6 +301,18 @@ export class NcrsService {
         entityId: row.id,
         after: { number, source, lotId: row.lotId, supplierId, partId, defectCodes: row.defectCodes, suspectQuantity: row.suspectQuantity, signalId: row.signalId, cores: sampleIds.length, readings: readingIds.length, photos: photos.length },
       });
+      if (signalRow) {
+        await tx.update(driftSignal).set({ status: 'ncr-opened', ncrId: row.id }).where(eq(driftSignal.id, signalRow.id));
+        await this.audit.record(tx, {
+          actorId: actor.id,
+          actorEmail: actor.email,
+          action: 'spc.signal_taken_into_ncr',
+          entity: 'drift_signal',
+          entityId: signalRow.id,
+          before: { status: signalRow.status },
+          after: { status: 'ncr-opened', ncr: number, rule: signalRow.rule, lot: signalRow.lotRef, code: signalRow.characteristicCode },
+        });
+      }
       await noteNcrForCorrectiveActions(tx, row, actor);
       return row.id;
     });

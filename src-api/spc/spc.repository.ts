@@ -1,12 +1,13 @@
 import { Injectable } from '@nestjs/common';
 import { and, asc, desc, eq, sql, type SQL } from 'drizzle-orm';
 import type { DbOrTx } from '../db/client';
-import { appUser, controlLimit, dieWearForecast, driftSignal, part, planCharacteristic, supplier } from '../db/schema';
+import { appUser, controlLimit, dieWearForecast, driftSignal, ncr, part, planCharacteristic, supplier } from '../db/schema';
 import type { fieldsNeeded, LotResults } from '../../shared/compute/spc/drift';
 
 export type CharacteristicRow = typeof planCharacteristic.$inferSelect & { planRevision: number };
 export type ControlLimitRow = typeof controlLimit.$inferSelect & { frozenByEmail: string | null };
-export type DriftSignalRow = typeof driftSignal.$inferSelect;
+/** A signal with the number of the NCR it was taken into, if any. */
+export type DriftSignalRow = typeof driftSignal.$inferSelect & { ncrNumber?: string | null };
 
 export type WatchRowRaw = {
   supplier_id: string;
@@ -107,12 +108,14 @@ export class SpcRepository {
   }
 
   async signals(db: DbOrTx, supplierId: string, partId: string, code: string): Promise<DriftSignalRow[]> {
-    return db
-      .select()
+    const rows = await db
+      .select({ s: driftSignal, ncrNumber: ncr.number })
       .from(driftSignal)
+      .leftJoin(ncr, eq(ncr.id, driftSignal.ncrId))
       .where(and(eq(driftSignal.supplierId, supplierId), eq(driftSignal.partId, partId), eq(driftSignal.characteristicCode, code)))
       .orderBy(desc(driftSignal.createdAt), desc(driftSignal.lotRef))
       .limit(1000);
+    return rows.map((r) => ({ ...r.s, ncrNumber: r.ncrNumber }));
   }
 
   async supplierAndPart(db: DbOrTx, supplierId: string, partId: string) {

@@ -110,6 +110,8 @@ export function toSignalView(s: DriftSignalRow): DriftSignal {
     ackNote: s.ackNote,
     ackBy: s.ackBy,
     ackAt: s.ackAt?.toISOString() ?? null,
+    ncrId: s.ncrId,
+    ncrNumber: s.ncrNumber ?? null,
     createdAt: s.createdAt.toISOString(),
   };
 }

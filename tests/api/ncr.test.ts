@@ -90,11 +90,13 @@ describe('raising an NCR from a rejected lot', () => {
     expect(second.body.message).toContain(first.number);
   });
 
-  it('raises from a drift signal (a plain id) and by hand, and checks defect codes against the list', async () => {
+  it('raises by hand, refuses a drift signal that does not exist, and checks defect codes against the list', async () => {
+    // Taking a real signal into an NCR is tested with the charts that raise them (spc.test.ts).
     const s = await makeSupplier(eng);
     const signalId = '7d1c4a52-3f7e-4b8e-9a61-2f0c1d9e8b77';
-    const sig = await raise(eng, { signalId, supplierId: s.id, characteristicCode: 'burr', suspectQuantity: 12, defectCodes: ['BURR'] });
-    expect(sig).toMatchObject({ source: 'signal', signalId, supplierId: s.id, characteristicCode: 'BURR', lotId: null });
+    const noSignal = await eng.post('/api/ncrs', ncrBody({ signalId, supplierId: s.id, characteristicCode: 'burr', suspectQuantity: 12, defectCodes: ['BURR'] }));
+    expect(noSignal.status).toBe(400);
+    expect(noSignal.body.fields.signalId).toBe('No such drift signal');
     const byHand = await raise(eng, { suspectQuantity: 3 });
     expect(byHand.source).toBe('manual');
     const unknown = await eng.post('/api/ncrs', ncrBody({ defectCodes: ['NOPE'] }));

@@ -426,6 +426,55 @@ describe('POST /api/spc/signals/:id/ack', () => {
   });
 });
 
+describe('POST /api/ncrs from a drift signal', () => {
+  it('takes an open signal into a numbered NCR for its supplier, part and characteristic, once (audited)', async () => {
+    const [sig] = await t.db.select().from(driftSignal).where(eq(driftSignal.status, 'open')).orderBy(asc(driftSignal.createdAt)).limit(1);
+    expect(sig).toBeTruthy();
+    const body = (over: Record<string, unknown> = {}) => ({
+      signalId: sig.id,
+      title: 'Burr height drifting up',
+      requirement: 'Burr height stable within its control limits',
+      found: sig.message,
+      defectCodes: ['BURR'],
+      suspectQuantity: 50,
+      ...over,
+    });
+    // The signal decides the supplier and characteristic: another one is refused by field.
+    const other = await makeSupplier(eng);
+    const wrong = await eng.post('/api/ncrs', body({ supplierId: other.id, characteristicCode: 'OD' }));
+    expect(wrong.status).toBe(400);
+    expect(wrong.body.fields).toMatchObject({ supplierId: 'This is not the supplier of the signal', characteristicCode: 'This is not the characteristic of the signal' });
+    expect((await t.db.select().from(driftSignal).where(eq(driftSignal.id, sig.id)))[0].status).toBe('open');
+
+    const r = await eng.post('/api/ncrs', body());
+    expect(r.status).toBe(201);
+    expect(r.body).toMatchObject({ source: 'signal', signalId: sig.id, supplierId: sig.supplierId, partId: sig.partId, characteristicCode: sig.characteristicCode, lotId: null });
+    expect(r.body.number).toMatch(/^NCR-\d{4}-\d+$/);
+    const [after] = await t.db.select().from(driftSignal).where(eq(driftSignal.id, sig.id));
+    expect(after).toMatchObject({ status: 'ncr-opened', ncrId: r.body.id });
+    const [ev] = await t.db.select().from(auditEvent).where(and(eq(auditEvent.action, 'spc.signal_taken_into_ncr'), eq(auditEvent.entityId, sig.id)));
+    expect(ev.after).toMatchObject({ status: 'ncr-opened', ncr: r.body.number });
+
+    // Once: a second NCR from it names the first; acknowledging it now is refused too.
+    const again = await eng.post('/api/ncrs', body());
+    expect(again.status).toBe(409);
+    expect(again.body.message).toContain(r.body.number);
+    expect((await eng.post(`/api/spc/signals/${sig.id}/ack`, { note: 'late' })).status).toBe(409);
+    // The chart's signal list shows it taken.
+    const chart = await chartOf(eng, sig.supplierId, sig.partId, sig.characteristicCode);
+    expect(chart.status).toBe(200);
+    expect(chart.body.signals.find((x: { id: string }) => x.id === sig.id)).toMatchObject({ status: 'ncr-opened', ncrId: r.body.id, ncrNumber: r.body.number });
+  });
+
+  it('can take an acknowledged signal into an NCR as well', async () => {
+    const [sig] = await t.db.select().from(driftSignal).where(eq(driftSignal.status, 'acknowledged')).limit(1);
+    expect(sig).toBeTruthy();
+    const r = await eng.post('/api/ncrs', { signalId: sig.id, title: 'Burr drift after resharpening', requirement: 'Stable burr height', found: sig.message, defectCodes: ['BURR'], suspectQuantity: 10 });
+    expect(r.status).toBe(201);
+    expect((await t.db.select().from(driftSignal).where(eq(driftSignal.id, sig.id)))[0].status).toBe('ncr-opened');
+  });
+});
+
 describe('GET /api/spc/* access and bad queries', () => {
   it('lets inspectors and auditors read; refuses suppliers and admins', async () => {
     for (const h of [insp, aud, eng]) expect((await h.get('/api/spc/watch')).status).toBe(200);

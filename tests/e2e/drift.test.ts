@@ -137,12 +137,18 @@ describe('Drift watch', () => {
     await page.close();
   });
 
-  it('acknowledges a signal with a note', async () => {
+  /** The burr chart's signal table, as the engineer. */
+  async function signalsTable() {
     const { page } = await engineerPage();
     await page.goto(`${BASE}/drift-watch`);
     await page.getByRole('row', { name: new RegExp(`${partNumber} BURR`) }).getByRole('link', { name: 'BURR' }).click();
     const table = page.getByRole('table', { name: 'Drift signals' });
     await table.waitFor();
+    return { page, table };
+  }
+
+  it('acknowledges a signal with a note', async () => {
+    const { page, table } = await signalsTable();
     const first = table.getByRole('button', { name: /^Acknowledge/ }).first();
     const label = (await first.getAttribute('aria-label')) ?? '';
     expect(label).toMatch(/^Acknowledge \S+ (\(spread\) )?on lot \d+$/);
@@ -153,6 +159,39 @@ describe('Drift watch', () => {
     await dialog.waitFor({ state: 'hidden' });
     // That signal is no longer open: its button is gone and the note is on the row.
     await expect.poll(() => table.getByRole('button', { name: label, exact: true }).count()).toBe(0);
+    await page.close();
+  });
+
+  it('opens an NCR from a signal, prefilled from the chart, and the signal then links to it', async () => {
+    const { page, table } = await signalsTable();
+    const first = table.getByRole('button', { name: /^Open an NCR from/ }).first();
+    const label = (await first.getAttribute('aria-label')) ?? '';
+    const lotRef = /on lot (\d+)$/.exec(label)?.[1];
+    expect(lotRef).toBeTruthy();
+    await first.click();
+    const form = page.getByRole('form', { name: 'Raise an NCR from a drift signal' });
+    await form.waitFor();
+    // Drafted from the signal: the characteristic and rule, the lot and its message, the BURR code.
+    expect(await form.getByLabel('Title').inputValue()).toMatch(/^Burr height/);
+    expect(await form.getByLabel('Found').inputValue()).toMatch(new RegExp(`^Lot ${lotRef}\\b`));
+    await expect.poll(() => form.getByRole('checkbox', { name: /BURR/ }).isChecked()).toBe(true);
+    // The suspect quantity is the engineer's to give: sending without it is refused inline.
+    await page.getByRole('button', { name: 'Raise NCR', exact: true }).click();
+    await form.getByText(/Enter the number of suspect cores/).waitFor();
+    await form.getByLabel(/Suspect quantity/).fill('120');
+    await screenshot(page, 'drift-raise-ncr');
+    await page.getByRole('button', { name: 'Raise NCR', exact: true }).click();
+    await page.waitForURL(/\/nonconformances\/[0-9a-f-]{36}$/);
+    const number = (await page.getByRole('heading', { level: 1 }).textContent()) ?? '';
+    expect(number).toMatch(/^NCR-\d{4}-\d{4}$/);
+    // Back on the chart, the signal names the NCR and offers nothing more.
+    await page.getByRole('link', { name: 'BURR control chart' }).click();
+    await table.waitFor();
+    // Open signals are listed first; the one taken into the NCR may be past the first 20.
+    const showAll = page.getByRole('button', { name: /^Show all \d+$/ });
+    if ((await showAll.count()) > 0) await showAll.click();
+    await table.getByRole('link', { name: number }).waitFor();
+    expect(await table.getByRole('button', { name: label, exact: true }).count()).toBe(0);
     await page.close();
   });
 

@@ -1,6 +1,7 @@
 import { Button, Caption1, Field, Input, MessageBar, MessageBarBody, Subtitle2, Table, TableBody, TableCell, TableHeader, TableRow, makeStyles, tokens } from '@fluentui/react-components';
 import { Suspense, lazy, useRef, useState } from 'react';
-import { Link, useParams, useSearchParams } from 'react-router-dom';
+import { Link, useNavigate, useParams, useSearchParams } from 'react-router-dom';
+import { useQueryClient } from '@tanstack/react-query';
 import type { ChartResponse, DriftSignal } from '@shared/schemas/drift';
 import { Page } from '../../components/page';
 import { EmptyState } from '../../components/empty-state';
@@ -13,6 +14,7 @@ import { CapabilityPanel } from '../../features/drift/components/capability-pane
 import { ForecastPanel } from '../../features/drift/components/forecast-panel';
 import { FreezeDialog } from '../../features/drift/components/freeze-dialog';
 import { AckDialog } from '../../features/drift/components/ack-dialog';
+import { RaiseNcrPanel } from '../../features/ncrs/components/raise-ncr-panel';
 import { useCanManageMasterData } from '../../features/auth/hooks/use-can';
 import { chartColours } from '../../theme/theme';
 import { useThemeMode } from '../../theme/theme-mode';
@@ -25,6 +27,7 @@ const useStyles = makeStyles({
   actions: { display: 'flex', gap: '8px', flexWrap: 'wrap' },
   touch: { minHeight: '44px' },
   rowBtn: { minHeight: '36px' },
+  rowActions: { display: 'flex', gap: '6px', whiteSpace: 'nowrap' },
   card: { border: `1px solid ${tokens.colorNeutralStroke2}`, borderRadius: tokens.borderRadiusLarge, padding: '14px 16px', backgroundColor: tokens.colorNeutralBackground1, marginBottom: '16px' },
   info: { display: 'flex', flexWrap: 'wrap', gap: '6px 18px', alignItems: 'center', marginBottom: '10px' },
   muted: { color: tokens.colorNeutralForeground3 },
@@ -68,7 +71,7 @@ function LimitsLine({ chart }: { chart: ChartResponse }) {
 
 const SHOWN_SIGNALS = 20;
 
-function SignalsTable({ chart, onAck, canAck }: { chart: ChartResponse; onAck: (s: DriftSignal) => void; canAck: boolean }) {
+function SignalsTable({ chart, onAck, onRaise, canAck }: { chart: ChartResponse; onAck: (s: DriftSignal) => void; onRaise: (s: DriftSignal) => void; canAck: boolean }) {
   const s = useStyles();
   const [all, setAll] = useState(false);
   if (!chart.signals.length) return <Caption1 className={s.muted}>No drift signals have been raised for this chart.</Caption1>;
@@ -116,14 +119,27 @@ function SignalsTable({ chart, onAck, canAck }: { chart: ChartResponse; onAck: (
               <TableCell className={s.num}>{g.createdAt.slice(0, 10)}</TableCell>
               <TableCell>
                 {g.status === 'open' ? <StatusPill tone="pending">Open</StatusPill> : g.status === 'acknowledged' ? <StatusPill tone="neutral" title={g.ackNote ?? undefined}>Acknowledged</StatusPill> : <StatusPill tone="info">NCR opened</StatusPill>}
+                {g.ncrId ? (
+                  <>
+                    {' '}
+                    <Link className={s.lotLink} to={paths.ncr(g.ncrId)}>{g.ncrNumber ?? 'the NCR'}</Link>
+                  </>
+                ) : null}
               </TableCell>
               {canAck ? (
                 <TableCell>
-                  {g.status === 'open' ? (
-                    <Button className={s.rowBtn} size="small" onClick={() => onAck(g)} aria-label={`Acknowledge ${g.rule}${g.chart === 'dispersion' ? ' (spread)' : ''} on lot ${g.lotRef}`}>
-                      Acknowledge
-                    </Button>
-                  ) : null}
+                  <div className={s.rowActions}>
+                    {g.status === 'open' ? (
+                      <Button className={s.rowBtn} size="small" onClick={() => onAck(g)} aria-label={`Acknowledge ${g.rule}${g.chart === 'dispersion' ? ' (spread)' : ''} on lot ${g.lotRef}`}>
+                        Acknowledge
+                      </Button>
+                    ) : null}
+                    {g.status !== 'ncr-opened' ? (
+                      <Button className={s.rowBtn} size="small" onClick={() => onRaise(g)} aria-label={`Open an NCR from ${g.rule}${g.chart === 'dispersion' ? ' (spread)' : ''} on lot ${g.lotRef}`}>
+                        Open NCR
+                      </Button>
+                    ) : null}
+                  </div>
                 </TableCell>
               ) : null}
             </TableRow>
@@ -145,6 +161,9 @@ export function DriftChartPage() {
   const { mode } = useThemeMode();
   const [freezing, setFreezing] = useState(false);
   const [acking, setAcking] = useState<DriftSignal | null>(null);
+  const [raising, setRaising] = useState<DriftSignal | null>(null);
+  const navigate = useNavigate();
+  const qc = useQueryClient();
   const [exportError, setExportError] = useState<string | null>(null);
   const [range, setRange] = useState({ from: from ?? '', to: to ?? '' });
   const chartRef = useRef<HTMLDivElement>(null);
@@ -257,9 +276,19 @@ export function DriftChartPage() {
       <Subtitle2 as="h2" className={s.h2}>
         Drift signals
       </Subtitle2>
-      <SignalsTable chart={chart} canAck={canWrite} onAck={setAcking} />
+      <SignalsTable chart={chart} canAck={canWrite} onAck={setAcking} onRaise={setRaising} />
       <FreezeDialog chart={chart} open={freezing} onClose={() => setFreezing(false)} />
       <AckDialog signal={acking} onClose={() => setAcking(null)} />
+      <RaiseNcrPanel
+        open={!!raising}
+        lot={null}
+        signal={raising ? { signal: raising, chart } : null}
+        onClose={() => setRaising(null)}
+        onCreated={(n) => {
+          void qc.invalidateQueries({ queryKey: ['spc'] });
+          void navigate(paths.ncr(n.id));
+        }}
+      />
     </Page>
   );
 }

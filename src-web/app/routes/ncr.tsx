@@ -69,7 +69,7 @@ function Facts({ n }: { n: Ncr }) {
         </dd>
         <dt className={s.dt}>Suspect</dt><dd className={s.dd}><strong>{n.suspectQuantity} cores</strong></dd>
         {n.characteristicCode ? (<><dt className={s.dt}>Characteristic</dt><dd className={s.dd}>{n.characteristicCode}</dd></>) : null}
-        {n.signalId ? (<><dt className={s.dt}>Drift signal</dt><dd className={s.dd}><Link className={s.link} to={paths.drift}>on Drift watch</Link></dd></>) : null}
+        {n.signalId ? (<><dt className={s.dt}>Drift signal</dt><dd className={s.dd}><Link className={s.link} to={n.supplierId && n.partId && n.characteristicCode ? paths.driftChart(n.supplierId, n.partId, n.characteristicCode) : paths.drift}>{n.characteristicCode ? `${n.characteristicCode} control chart` : 'on Drift watch'}</Link></dd></>) : null}
         <dt className={s.dt}>Raised</dt><dd className={s.dd}>{formatWhen(n.raisedAt)}{n.raisedByName ? ` by ${n.raisedByName}` : ''}</dd>
         {n.scarId ? (<><dt className={s.dt}>Corrective action</dt><dd className={s.dd}><Link className={s.link} to={paths.scar(n.scarId)}>{n.scarNumber}</Link></dd></>) : null}
       </dl>

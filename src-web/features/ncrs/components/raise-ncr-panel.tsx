@@ -3,6 +3,7 @@ import { useMemo } from 'react';
 import { z } from 'zod';
 import { text } from '@shared/schemas/common';
 import { defectCodeValue, type HeldLot, type Ncr } from '@shared/schemas/ncr';
+import type { ChartResponse, DriftSignal } from '@shared/schemas/drift';
 import { Form, TextField } from '../../../components/form';
 import { NumberField, SelectField, TextAreaField, formSchema } from '../../../components/form-fields';
 import { SidePanel } from '../../../components/side-panel';
@@ -55,12 +56,38 @@ export function draftFromLot(l: HeldLot, knownCodes: string[]): RaiseValues {
   };
 }
 
-/** Raise an NCR: from a held lot (prefilled from its failed readings) or by hand. */
-export function RaiseNcrPanel({ open, lot, onClose, onCreated }: { open: boolean; lot: HeldLot | null; onClose: () => void; onCreated: (n: Ncr) => void }) {
+/** A drift signal and the chart it was raised on, for an NCR opened from Drift watch. */
+export interface SignalSource {
+  signal: DriftSignal;
+  chart: Pick<ChartResponse, 'supplier' | 'part' | 'characteristic'>;
+}
+
+const num = (x: number | null | undefined) => (x == null ? '—' : formatValue(x));
+
+/** What a drift signal says, as the NCR's first draft (the engineer edits it). */
+export function draftFromSignal({ signal: g, chart }: SignalSource, knownCodes: string[]): RaiseValues {
+  const c = chart.characteristic;
+  const unit = c.unit && c.unit !== 'count' ? ` ${c.unit}` : '';
+  const spec = c.lsl != null && c.usl != null ? `${c.lsl}–${c.usl}${unit}` : c.usl != null ? `at most ${c.usl}${unit}` : c.lsl != null ? `at least ${c.lsl}${unit}` : null;
+  const limits = g.ucl != null || g.lcl != null ? ` (centre ${num(g.center)}, limits ${num(g.lcl)} – ${num(g.ucl)}${unit}, ${g.limitVersion === null ? 'trial limits' : `limits version ${g.limitVersion}`})` : '';
+  return {
+    title: `${c.name}: ${g.description}`.slice(0, 160),
+    requirement: [spec ? `${c.name}: ${spec}` : null, `A stable ${g.chart === 'dispersion' ? 'spread' : 'level'} of ${c.name.toLowerCase()}, inside its control limits${limits}`].filter(Boolean).join('\n'),
+    // The message names the lot (and core): "lot 245 core 1 is above the upper 3σ limit (we1)".
+    found: `${g.message.charAt(0).toUpperCase()}${g.message.slice(1)}. Plotted value ${num(g.value)}${unit}.`,
+    defectCodes: knownCodes.includes(c.code) ? [c.code] : [],
+    suspectQuantity: undefined as unknown as number,
+    supplierId: null,
+    partId: null,
+  };
+}
+
+/** Raise an NCR: from a held lot (prefilled from its failed readings), from a drift signal, or by hand. */
+export function RaiseNcrPanel({ open, lot, signal = null, onClose, onCreated }: { open: boolean; lot: HeldLot | null; signal?: SignalSource | null; onClose: () => void; onCreated: (n: Ncr) => void }) {
   const s = useStyles();
   const create = useCreateNcr();
   const codes = useDefectCodes();
-  const manual = !lot;
+  const manual = !lot && !signal;
   const suppliers = useSuppliers({ page: 1, pageSize: 200, sort: 'code' });
   const parts = useParts({ page: 1, pageSize: 200, sort: 'partNumber' });
   const schema = useMemo(
@@ -72,12 +99,15 @@ export function RaiseNcrPanel({ open, lot, onClose, onCreated }: { open: boolean
         : baseSchema,
     [lot],
   );
-  const defaults = useMemo<RaiseValues>(
-    () => (lot ? draftFromLot(lot, codes.data?.items.map((c) => c.code) ?? []) : { title: '', requirement: '', found: '', defectCodes: [], suspectQuantity: undefined as unknown as number, supplierId: null, partId: null }),
-    [lot, codes.data],
-  );
+  const defaults = useMemo<RaiseValues>(() => {
+    const known = codes.data?.items.map((c) => c.code) ?? [];
+    if (lot) return draftFromLot(lot, known);
+    if (signal) return draftFromSignal(signal, known);
+    return { title: '', requirement: '', found: '', defectCodes: [], suspectQuantity: undefined as unknown as number, supplierId: null, partId: null };
+  }, [lot, signal, codes.data]);
+  const title = lot ? `Raise an NCR for lot #${lot.ref}` : signal ? `Raise an NCR from the ${signal.signal.rule} signal on lot #${signal.signal.lotRef}` : 'Raise an NCR by hand';
   return (
-    <SidePanel open={open} title={lot ? `Raise an NCR for lot #${lot.ref}` : 'Raise an NCR by hand'} onClose={onClose} formId={FORM_ID} submitLabel="Raise NCR" submitting={create.isPending}>
+    <SidePanel open={open} title={title} onClose={onClose} formId={FORM_ID} submitLabel="Raise NCR" submitting={create.isPending}>
       {lot ? (
         <div className={s.lot}>
           <Body1><strong>Lot #{lot.ref}</strong> · {lot.supplierCode} · {lot.partNumber} rev {lot.partRevision} · {lot.quantity} cores</Body1>
@@ -93,13 +123,23 @@ export function RaiseNcrPanel({ open, lot, onClose, onCreated }: { open: boolean
           ) : null}
         </div>
       ) : null}
+      {signal ? (
+        <div className={s.lot}>
+          <Body1>
+            <strong>{signal.chart.characteristic.code}</strong> · {signal.chart.supplier.code} · {signal.chart.part.partNumber} rev {signal.chart.part.revision} · rule {signal.signal.rule}{signal.signal.chart === 'dispersion' ? ' (spread)' : ''}
+          </Body1>
+          <Caption1 className={s.muted}>
+            {signal.signal.message}. The report names this supplier, part and characteristic and links the signal, which is then marked as taken into it. No lot is put on hold: hold the suspect stock by hand if it is still on site.
+          </Caption1>
+        </div>
+      ) : null}
       <Form<RaiseValues>
-        key={lot?.id ?? 'manual'}
+        key={lot?.id ?? signal?.signal.id ?? 'manual'}
         id={FORM_ID}
         schema={formSchema<RaiseValues>(schema)}
         defaultValues={defaults}
         className={s.fields}
-        aria-label={lot ? `Raise an NCR for lot ${lot.ref}` : 'Raise an NCR by hand'}
+        aria-label={lot ? `Raise an NCR for lot ${lot.ref}` : signal ? `Raise an NCR from a drift signal` : 'Raise an NCR by hand'}
         onSubmit={async (v) => {
           const n = await create.mutateAsync({
             title: v.title,
@@ -108,6 +148,7 @@ export function RaiseNcrPanel({ open, lot, onClose, onCreated }: { open: boolean
             defectCodes: v.defectCodes,
             suspectQuantity: v.suspectQuantity,
             ...(lot ? { lotId: lot.id, readingIds: lot.failures.map((f) => f.readingId), ...(lot.photoIds.length ? { photoIds: lot.photoIds } : {}) } : {}),
+            ...(signal ? { signalId: signal.signal.id } : {}),
             ...(manual && v.supplierId ? { supplierId: v.supplierId } : {}),
             ...(manual && v.partId ? { partId: v.partId } : {}),
           });
@@ -120,7 +161,7 @@ export function RaiseNcrPanel({ open, lot, onClose, onCreated }: { open: boolean
             <TextAreaField name="requirement" label="Requirement" required hint="What the drawing, plan or order requires" />
             <TextAreaField name="found" label="Found" required hint="What was found, with values and cores" rows={4} />
             <DefectCodePicker name="defectCodes" />
-            <NumberField name="suspectQuantity" label="Suspect quantity" unit="cores" required hint={lot ? `Usually the whole lot (${lot.quantity})` : undefined} />
+            <NumberField name="suspectQuantity" label="Suspect quantity" unit="cores" required hint={lot ? `Usually the whole lot (${lot.quantity})` : signal ? 'Cores made since the drift began, as far as known (lots on site and in transit)' : undefined} />
             {manual ? (
               <>
                 <SelectField name="supplierId" label="Supplier" placeholder="No supplier (internal)" options={(suppliers.data?.items ?? []).map((x) => ({ value: x.id, label: `${x.code} · ${x.name}` }))} hint="Needed for a corrective action request" />
