@@ -4,6 +4,7 @@ import { startTestApp, type TestApp } from '../support/test-app';
 import { DEMO, Http, signedIn } from '../support/http';
 import { makeGauge, makePart, makeSupplier, simpleCharacteristic } from '../support/factories';
 import { auditEvent, driftSignal, lot, lotSample, reading, supplierNotice } from '../../src-api/db/schema';
+import { pistonRings } from '../support/datasets';
 
 let t: TestApp;
 let eng: Http;
@@ -106,18 +107,8 @@ function ols(x: number[], y: number[]) {
 
 // ───────────────────────────────────────────── the calculator
 
-/** Montgomery, Introduction to Statistical Quality Control, Table 6.3: piston-ring inside diameter, 25 × 5 (mm). */
-const PISTON_RINGS = [
-  [74.03, 74.002, 74.019, 73.992, 74.008], [73.995, 73.992, 74.001, 74.011, 74.004], [73.988, 74.024, 74.021, 74.005, 74.002],
-  [74.002, 73.996, 73.993, 74.015, 74.009], [73.992, 74.007, 74.015, 73.989, 74.014], [74.009, 73.994, 73.997, 73.985, 73.993],
-  [73.995, 74.006, 73.994, 74.0, 74.005], [73.985, 74.003, 73.993, 74.015, 73.988], [74.008, 73.995, 74.009, 74.005, 74.004],
-  [73.998, 74.0, 73.99, 74.007, 73.995], [73.994, 73.998, 73.994, 73.995, 73.99], [74.004, 74.0, 74.007, 74.0, 73.996],
-  [73.983, 74.002, 73.998, 73.997, 74.012], [74.006, 73.967, 73.994, 74.0, 73.984], [74.012, 74.014, 73.998, 73.999, 74.007],
-  [74.0, 73.984, 74.005, 73.998, 73.996], [73.994, 74.012, 73.986, 74.005, 74.007], [74.006, 74.01, 74.018, 74.003, 74.0],
-  [73.984, 74.002, 74.003, 74.005, 73.997], [74.0, 74.01, 74.013, 74.02, 74.003], [73.982, 74.001, 74.015, 74.005, 73.996],
-  [74.004, 73.999, 73.99, 74.006, 74.009], [74.01, 73.989, 73.99, 74.009, 74.014], [74.015, 74.008, 73.993, 74.0, 74.01],
-  [73.982, 73.984, 73.995, 74.017, 74.013],
-];
+// Montgomery, Introduction to Statistical Quality Control, Table 6.3: piston-ring inside diameter, 25 × 5 (mm).
+const PISTON_RINGS = pistonRings();
 
 describe('POST /api/spc/analyze', () => {
   it('draws the piston-ring X-bar/R chart and its capability', async () => {

@@ -4,9 +4,7 @@ import { HANDLING_CAUTIONS } from '../../shared/compute/plan-templates';
 import { launchBrowser, screenshot, signIn } from '../support/browser';
 import { E2E_BASE_URL as BASE } from '../support/env';
 import { DEMO, signedIn, type Http } from '../support/http';
-import { makeGauge, makePart } from '../support/factories';
-
-const stamp = () => `${Date.now().toString(36)}${Math.floor(Math.random() * 1000)}`.toUpperCase();
+import { benchFixture, stamp } from '../support/bench-fixture';
 
 let ctx: BrowserContext;
 let eng: Http;
@@ -15,28 +13,10 @@ let partId: string;
 let boreTag: string;
 let burrTag: string;
 
-/** One bore reading, four burr readings and a paperwork check per core, as in the receiving test. */
-const CHARACTERISTICS = [
-  { code: 'BORE', name: 'Bore diameter', kind: 'variable', unit: 'mm', nominal: 150, lsl: 149.95, usl: 150.05, layout: 'single', readingsPerSample: 1, gaugeKind: 'bore-gauge', chartKind: 'none', severity: 'major' },
-  { code: 'BURR', name: 'Burr height at the slot', kind: 'variable', unit: 'µm', nominal: null, lsl: null, usl: 25, layout: 'single', readingsPerSample: 4, gaugeKind: 'burr-gauge', chartKind: 'none', severity: 'major' },
-  { code: 'PAPERS', name: 'Certificate matches heat numbers', kind: 'attribute', layout: 'pass-fail', readingsPerSample: 1, chartKind: 'none', severity: 'major' },
-];
-
 beforeAll(async () => {
   ctx = await launchBrowser({ width: 1280, height: 900 });
   eng = await signedIn(BASE, DEMO.engineer);
-  const part = await makePart(eng, { partNumber: `IMP-${stamp()}`, description: 'Import e2e core, 48 slots' });
-  partId = part.id;
-  // Level S-2, AQL 4.0: a lot of 10 samples 3 cores (ISO 2859-1 Tables 1 and 2-A, code letter A → plan B).
-  const plan = await eng.post('/api/plans', { partId, samplingKind: 'aql', inspectionLevel: 'S-2', aql: 4.0, characteristics: CHARACTERISTICS });
-  expect(plan.status).toBe(201);
-  expect((await eng.post(`/api/plans/${plan.body.id}/activate`, { version: plan.body.version })).status).toBe(200);
-  boreTag = `BI-${stamp()}`;
-  burrTag = `UI-${stamp()}`;
-  await makeGauge(eng, { assetTag: boreTag, kind: 'bore-gauge' });
-  await makeGauge(eng, { assetTag: burrTag, kind: 'burr-gauge', unit: 'µm', resolution: 1, description: 'Burr height gauge' });
-  const suppliers = await eng.get('/api/suppliers?pageSize=200');
-  supplierId = (suppliers.body.items as { id: string; code: string }[]).find((x) => x.code === 'NGL')!.id;
+  ({ supplierId, partId, boreTag, burrTag } = await benchFixture(eng, { partPrefix: 'IMP', description: 'Import e2e core, 48 slots', tagPrefix: ['BI', 'UI'] }));
 });
 afterAll(async () => {
   await ctx?.close();

@@ -5,9 +5,9 @@ import path from 'node:path';
 import { ARTIFACTS, launchBrowser, screenshot, signIn } from '../support/browser';
 import { E2E_BASE_URL as BASE } from '../support/env';
 import { DEMO, signedIn, type Http } from '../support/http';
-import { makeGauge, makePart } from '../support/factories';
+import { makeGauge } from '../support/factories';
+import { benchFixture, stamp } from '../support/bench-fixture';
 
-const stamp = () => `${Date.now().toString(36)}${Math.floor(Math.random() * 1000)}`.toUpperCase();
 const PDF = Buffer.from('%PDF-1.4\n1 0 obj <<>> endobj\ntrailer <<>>\n%%EOF\n');
 
 let ctx: BrowserContext;
@@ -18,32 +18,12 @@ let partLabel: string;
 let boreTag: string;
 let burrTag: string;
 
-/** A plan the bench sheet can be driven through quickly: one bore, four burr readings, one paperwork check. */
-const CHARACTERISTICS = [
-  { code: 'BORE', name: 'Bore diameter', kind: 'variable', unit: 'mm', nominal: 150, lsl: 149.95, usl: 150.05, layout: 'single', readingsPerSample: 1, gaugeKind: 'bore-gauge', chartKind: 'none', severity: 'major' },
-  { code: 'BURR', name: 'Burr height at the slot', kind: 'variable', unit: 'µm', nominal: null, lsl: null, usl: 25, layout: 'single', readingsPerSample: 4, gaugeKind: 'burr-gauge', chartKind: 'none', severity: 'major' },
-  { code: 'PAPERS', name: 'Certificate matches heat numbers', kind: 'attribute', layout: 'pass-fail', readingsPerSample: 1, chartKind: 'none', severity: 'major' },
-];
-
 beforeAll(async () => {
   ctx = await launchBrowser({ width: 1280, height: 800 });
   eng = await signedIn(BASE, DEMO.engineer);
-  const part = await makePart(eng, { partNumber: `RCV-${stamp()}`, description: 'Receiving e2e core, 48 slots' });
-  partId = part.id;
-  partLabel = `${part.partNumber} rev ${part.revision}`;
-  // Level S-2, AQL 4.0: a lot of 10 samples 3 cores, Ac 0 / Re 1 (ISO 2859-1 Tables 1 and 2-A, code letter A → plan B).
-  const plan = await eng.post('/api/plans', { partId, samplingKind: 'aql', inspectionLevel: 'S-2', aql: 4.0, characteristics: CHARACTERISTICS });
-  expect(plan.status).toBe(201);
-  const act = await eng.post(`/api/plans/${plan.body.id}/activate`, { version: plan.body.version });
-  expect(act.status).toBe(200);
-  boreTag = `BG-${stamp()}`;
-  burrTag = `BU-${stamp()}`;
-  await makeGauge(eng, { assetTag: boreTag, kind: 'bore-gauge' });
-  await makeGauge(eng, { assetTag: burrTag, kind: 'burr-gauge', unit: 'µm', resolution: 1, description: 'Burr height gauge' });
+  ({ supplierId, partId, partLabel, boreTag, burrTag } = await benchFixture(eng, { partPrefix: 'RCV', description: 'Receiving e2e core, 48 slots', tagPrefix: ['BG', 'BU'] }));
   // An overdue bore gauge: listed, but not selectable.
   await makeGauge(eng, { assetTag: `BX-${stamp()}`, kind: 'bore-gauge', calibrationDueOn: '2020-01-31' });
-  const suppliers = await eng.get('/api/suppliers?pageSize=200');
-  supplierId = (suppliers.body.items as { id: string; code: string }[]).find((x) => x.code === 'NGL')!.id;
 });
 afterAll(async () => {
   await ctx?.close();

@@ -3,22 +3,10 @@ import { ComputeError } from '../../shared/compute/errors';
 import { analyze, type AnalyzeInput } from '../../shared/compute/spc/analyze';
 import { controlConstants } from '../../shared/compute/spc/constants';
 import { spcAnalyzeInputSchema, type SpcAnalyzeInput } from '../../shared/schemas/spc';
+import { pistonRings } from '../support/datasets';
 
 /** Montgomery, Introduction to Statistical Quality Control, Table 6.3 piston rings (first 10 subgroups). */
-function rings(): number[][] {
-  return [
-    [74.03, 74.002, 74.019, 73.992, 74.008],
-    [73.995, 73.992, 74.001, 74.011, 74.004],
-    [73.988, 74.024, 74.021, 74.005, 74.002],
-    [74.002, 73.996, 73.993, 74.015, 74.009],
-    [73.992, 74.007, 74.015, 73.989, 74.014],
-    [74.009, 73.994, 73.997, 73.985, 73.993],
-    [73.995, 74.006, 73.994, 74.0, 74.005],
-    [73.985, 74.003, 73.993, 74.015, 73.988],
-    [74.008, 73.995, 74.009, 74.005, 74.004],
-    [73.998, 74.0, 73.99, 74.007, 73.995],
-  ];
-}
+const rings = (): number[][] => pistonRings().slice(0, 10);
 
 const NIST_INDIVIDUALS = [49.6, 47.6, 49.9, 51.3, 47.8, 51.2, 52.6, 52.4, 53.6, 52.1];
 

@@ -4,6 +4,7 @@ import { describe, expect, it } from 'vitest';
 import { ComputeError } from '../../shared/compute/errors';
 import { capability, capabilityIndices, expectedPpm } from '../../shared/compute/spc/capability';
 import { controlConstants } from '../../shared/compute/spc/constants';
+import { pistonRings } from '../support/datasets';
 
 const jStat = jstatModule as { normal: { cdf(x: number, m: number, s: number): number } };
 
@@ -12,36 +13,8 @@ function expectNear(actual: number | undefined, expected: number, tol: number): 
   expect(Math.abs((actual as number) - expected)).toBeLessThanOrEqual(tol);
 }
 
-/** Montgomery, Introduction to Statistical Quality Control, Table 6.3 piston rings (25 × 5, mm). */
-function rings(): number[][] {
-  return [
-    [74.03, 74.002, 74.019, 73.992, 74.008],
-    [73.995, 73.992, 74.001, 74.011, 74.004],
-    [73.988, 74.024, 74.021, 74.005, 74.002],
-    [74.002, 73.996, 73.993, 74.015, 74.009],
-    [73.992, 74.007, 74.015, 73.989, 74.014],
-    [74.009, 73.994, 73.997, 73.985, 73.993],
-    [73.995, 74.006, 73.994, 74.0, 74.005],
-    [73.985, 74.003, 73.993, 74.015, 73.988],
-    [74.008, 73.995, 74.009, 74.005, 74.004],
-    [73.998, 74.0, 73.99, 74.007, 73.995],
-    [73.994, 73.998, 73.994, 73.995, 73.99],
-    [74.004, 74.0, 74.007, 74.0, 73.996],
-    [73.983, 74.002, 73.998, 73.997, 74.012],
-    [74.006, 73.967, 73.994, 74.0, 73.984],
-    [74.012, 74.014, 73.998, 73.999, 74.007],
-    [74.0, 73.984, 74.005, 73.998, 73.996],
-    [73.994, 74.012, 73.986, 74.005, 74.007],
-    [74.006, 74.01, 74.018, 74.003, 74.0],
-    [73.984, 74.002, 74.003, 74.005, 73.997],
-    [74.0, 74.01, 74.013, 74.02, 74.003],
-    [73.982, 74.001, 74.015, 74.005, 73.996],
-    [74.004, 73.999, 73.99, 74.006, 74.009],
-    [74.01, 73.989, 73.99, 74.009, 74.014],
-    [74.015, 74.008, 73.993, 74.0, 74.01],
-    [73.982, 73.984, 73.995, 74.017, 74.013],
-  ];
-}
+// Montgomery, Introduction to Statistical Quality Control, Table 6.3 piston rings (25 × 5, mm).
+const rings = pistonRings;
 
 describe('capabilityIndices', () => {
   it('reproduces NIST e-Handbook §6.1.6', () => {

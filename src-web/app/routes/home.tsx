@@ -1,9 +1,10 @@
-import { Body1, Caption1, Subtitle1, Table, TableBody, TableCell, TableHeader, TableRow, makeStyles, mergeClasses, tokens } from '@fluentui/react-components';
+import { Body1, Caption1, Table, TableBody, TableCell, TableHeader, TableRow, makeStyles, mergeClasses, tokens } from '@fluentui/react-components';
 import type { ReactNode } from 'react';
 import { Link } from 'react-router-dom';
 import { ROLE_LABELS, ROLES, type SessionUser } from '@shared/schemas/auth';
 import type { AdminDashboard, AuditorDashboard, DashboardDueStep, EngineerDashboard, InspectorDashboard, SupplierDashboard } from '@shared/schemas/dashboard';
 import { Page } from '../../components/page';
+import { Section } from '../../components/section';
 import { EmptyState } from '../../components/empty-state';
 import { HeadCell, Loading, TableFrame } from '../../components/data-table';
 import { StatusPill, type Tone } from '../../components/status-pill';
@@ -13,8 +14,6 @@ import { useDashboard } from '../../features/dashboard/api/dashboard';
 
 // The first page after sign-in: counts and short lists only, no chart library, no feature modules.
 const useStyles = makeStyles({
-  section: { marginBottom: '28px' },
-  h2: { display: 'block', margin: '0 0 10px' },
   tiles: { display: 'grid', gridTemplateColumns: 'repeat(auto-fill, minmax(200px, 1fr))', gap: '12px', marginBottom: '12px' },
   tile: {
     display: 'flex',
@@ -84,16 +83,6 @@ function Tile({ label, value, to, hint, tone = 'info', testId }: { label: string
     <Link className={cls} to={to} data-testid={testId} aria-label={`${label}: ${value}`}>{body}</Link>
   ) : (
     <div className={cls} data-testid={testId}>{body}</div>
-  );
-}
-
-function Section({ title, children }: { title: string; children: ReactNode }) {
-  const s = useStyles();
-  return (
-    <section className={s.section} aria-label={title}>
-      <Subtitle1 as="h2" className={s.h2}>{title}</Subtitle1>
-      {children}
-    </section>
   );
 }
 

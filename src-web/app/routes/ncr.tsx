@@ -1,5 +1,5 @@
-import { Body1, Button, Caption1, MessageBar, MessageBarBody, MessageBarTitle, Subtitle1, Table, TableBody, TableCell, TableHeader, TableRow, Textarea, Field, makeStyles, tokens } from '@fluentui/react-components';
-import { useState, type ReactNode } from 'react';
+import { Body1, Button, Caption1, MessageBar, MessageBarBody, MessageBarTitle, Table, TableBody, TableCell, TableHeader, TableRow, Textarea, Field, makeStyles, tokens } from '@fluentui/react-components';
+import { useState } from 'react';
 import { Link, useNavigate, useParams } from 'react-router-dom';
 import { DISPOSITION_LABELS, NCR_SOURCE_LABELS, type Ncr } from '@shared/schemas/ncr';
 import { LOT_STATUS_LABELS, type LotStatus } from '@shared/schemas/receiving';
@@ -11,7 +11,9 @@ import { paths } from '../../config/paths';
 import { ApiError } from '../../lib/api-client';
 import { useMe } from '../../features/auth/api/get-me';
 import { useNcr, useNcrTransition } from '../../features/ncrs/api/ncrs';
-import { NcrStatusPill, actionLabel, formatMoney, formatValue, formatWhen } from '../../features/ncrs/components/ncr-status';
+import { NcrStatusPill, formatMoney, formatValue, formatWhen } from '../../features/ncrs/components/ncr-status';
+import { HistoryList } from '../../features/ncrs/components/record-sections';
+import { Section } from '../../components/section';
 import { NcrPhotos } from '../../features/ncrs/components/ncr-photos';
 import { ReviewBoard } from '../../features/ncrs/components/review-board';
 import { IssueScarDialog } from '../../features/ncrs/components/issue-scar-dialog';
@@ -31,28 +33,14 @@ const useStyles = makeStyles({
   found: { display: 'block', whiteSpace: 'pre-wrap', margin: 0, color: tokens.colorPaletteRedForeground1, fontWeight: 600 },
   codes: { display: 'flex', gap: '6px', flexWrap: 'wrap', marginTop: '12px' },
   code: { fontFamily: tokens.fontFamilyMonospace, fontWeight: 700, border: `1px solid ${tokens.colorNeutralStroke1}`, borderRadius: '4px', padding: '1px 6px' },
-  section: { marginBottom: '28px' },
-  h2: { display: 'block', margin: '0 0 10px' },
   link: { color: tokens.colorBrandForeground1, fontWeight: 600 },
   num: { textAlign: 'right', fontVariantNumeric: 'tabular-nums' },
   bad: { color: tokens.colorPaletteRedForeground1, fontWeight: 600 },
   muted: { color: tokens.colorNeutralForeground3 },
   hash: { fontFamily: tokens.fontFamilyMonospace, fontSize: tokens.fontSizeBase200, overflowWrap: 'anywhere' },
   sig: { borderLeft: `3px solid ${tokens.colorBrandStroke1}`, paddingLeft: '12px', margin: '0 0 10px' },
-  history: { listStyle: 'none', margin: 0, padding: 0, display: 'flex', flexDirection: 'column', gap: '6px', maxWidth: '760px' },
-  event: { display: 'grid', gridTemplateColumns: '190px minmax(0, 1fr)', gap: '12px', borderLeft: `3px solid ${tokens.colorBrandStroke2}`, paddingLeft: '12px' },
   banner: { marginBottom: '16px' },
 });
-
-function Section({ title, children }: { title: string; children: ReactNode }) {
-  const s = useStyles();
-  return (
-    <section className={s.section} aria-label={title}>
-      <Subtitle1 as="h2" className={s.h2}>{title}</Subtitle1>
-      {children}
-    </section>
-  );
-}
 
 function Facts({ n }: { n: Ncr }) {
   const s = useStyles();
@@ -231,14 +219,7 @@ export function NcrPage() {
       </Section>
 
       <Section title="History">
-        <ol className={s.history}>
-          {n.history.map((h, i) => (
-            <li key={i} className={s.event}>
-              <Caption1 className={s.muted}>{formatWhen(h.at)}</Caption1>
-              <span>{actionLabel(h.action)}{h.actorEmail ? ` · ${h.actorEmail}` : ''}{h.reason ? ` — ${h.reason}` : ''}</span>
-            </li>
-          ))}
-        </ol>
+        <HistoryList entries={n.history} />
       </Section>
 
       <ConfirmDialog

@@ -1,7 +1,8 @@
-import { Badge, Body1, Button, Caption1, Field, Select, Tab, TabList, Table, TableBody, TableCell, TableHeader, TableRow, makeStyles, mergeClasses, tokens } from '@fluentui/react-components';
+import { Badge, Body1, Button, Caption1, Tab, TabList, Table, TableBody, TableCell, TableHeader, TableRow, makeStyles, mergeClasses, tokens } from '@fluentui/react-components';
 import { useEffect, useState } from 'react';
 import { Link, useNavigate, useSearchParams } from 'react-router-dom';
 import { NCR_STATUSES, NCR_STATUS_LABELS, type HeldLot, type NcrStatus } from '@shared/schemas/ncr';
+import { StateFilter } from '../../features/ncrs/components/record-sections';
 import { Page } from '../../components/page';
 import { EmptyState } from '../../components/empty-state';
 import { HeadCell, ListToolbar, Loading, Pager, SearchInput, SortHeader, TableFrame } from '../../components/data-table';
@@ -19,7 +20,6 @@ const useStyles = makeStyles({
   number: { fontFamily: tokens.fontFamilyMonospace, fontWeight: 700, color: tokens.colorBrandForeground1, textDecoration: 'none', whiteSpace: 'nowrap', ':hover': { textDecoration: 'underline' } },
   code: { fontFamily: tokens.fontFamilyMonospace, fontWeight: 600, marginRight: '6px' },
   muted: { color: tokens.colorNeutralForeground3 },
-  filter: { minWidth: '180px' },
   held: { display: 'grid', gridTemplateColumns: 'repeat(auto-fill, minmax(320px, 1fr))', gap: '14px' },
   lot: { border: `1px solid ${tokens.colorNeutralStroke2}`, borderLeft: `5px solid #b3261e`, borderRadius: tokens.borderRadiusLarge, padding: '12px 14px', display: 'flex', flexDirection: 'column', gap: '6px', backgroundColor: tokens.colorNeutralBackground1 },
   lotHead: { display: 'flex', justifyContent: 'space-between', alignItems: 'baseline', gap: '8px' },
@@ -103,13 +103,7 @@ export function NcrsPage() {
         <>
           <ListToolbar>
             <SearchInput label="Search number, title, lot or defect" value={lp.q} onChange={(q) => setLp({ q })} />
-            <Field label="State">
-              <Select className={s.filter} value={status ?? ''} onChange={(_, d) => setLp({ filters: { status: d.value || undefined } })}>
-                <option value="">All</option>
-                <option value="active">Not closed</option>
-                {NCR_STATUSES.map((x) => <option key={x} value={x}>{NCR_STATUS_LABELS[x]}</option>)}
-              </Select>
-            </Field>
+            <StateFilter value={status} states={NCR_STATUSES} labels={NCR_STATUS_LABELS} onChange={(v) => setLp({ filters: { status: v } })} />
           </ListToolbar>
           {list.isPending ? (
             <Loading />

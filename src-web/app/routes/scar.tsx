@@ -1,5 +1,5 @@
-import { Body1, Button, Caption1, Field, MessageBar, MessageBarBody, Subtitle1, Textarea, makeStyles, tokens } from '@fluentui/react-components';
-import { useState, type ReactNode } from 'react';
+import { Body1, Button, Caption1, Field, MessageBar, MessageBarBody, Textarea, makeStyles, tokens } from '@fluentui/react-components';
+import { useState } from 'react';
 import { Link, useParams } from 'react-router-dom';
 import type { Scar } from '@shared/schemas/corrective-action';
 import { Page } from '../../components/page';
@@ -14,30 +14,17 @@ import { ScarStatusPill } from '../../features/corrective-actions/components/sca
 import { StepCard } from '../../features/corrective-actions/components/step-card';
 import { ScarSummary } from '../../features/corrective-actions/components/scar-summary';
 import { MailStatus } from '../../features/corrective-actions/components/mail-status';
-import { actionLabel, formatWhen } from '../../features/ncrs/components/ncr-status';
+import { HistoryList } from '../../features/ncrs/components/record-sections';
+import { Section } from '../../components/section';
 
 const useStyles = makeStyles({
   head: { display: 'flex', gap: '8px', alignItems: 'center', flexWrap: 'wrap' },
   touch: { minHeight: '44px' },
   steps: { display: 'flex', flexDirection: 'column', gap: '12px' },
-  section: { marginBottom: '28px' },
-  h2: { display: 'block', margin: '0 0 10px' },
   link: { color: tokens.colorBrandForeground1, fontWeight: 600 },
   muted: { color: tokens.colorNeutralForeground3 },
-  history: { listStyle: 'none', margin: 0, padding: 0, display: 'flex', flexDirection: 'column', gap: '6px', maxWidth: '760px' },
-  event: { display: 'grid', gridTemplateColumns: '190px minmax(0, 1fr)', gap: '12px', borderLeft: `3px solid ${tokens.colorBrandStroke2}`, paddingLeft: '12px' },
   banner: { marginBottom: '16px' },
 });
-
-function Section({ title, children }: { title: string; children: ReactNode }) {
-  const s = useStyles();
-  return (
-    <section className={s.section} aria-label={title}>
-      <Subtitle1 as="h2" className={s.h2}>{title}</Subtitle1>
-      {children}
-    </section>
-  );
-}
 
 function Moves({ scar }: { scar: Scar }) {
   const s = useStyles();
@@ -113,14 +100,7 @@ export function ScarPage() {
       ) : null}
       {c.history ? (
         <Section title="History">
-          <ol className={s.history}>
-            {c.history.map((h, i) => (
-              <li key={i} className={s.event}>
-                <Caption1 className={s.muted}>{formatWhen(h.at)}</Caption1>
-                <span>{actionLabel(h.action)}{h.detail ? ` ${h.detail}` : ''}{h.actorEmail ? ` · ${h.actorEmail}` : ''}{h.reason ? ` — ${h.reason}` : ''}</span>
-              </li>
-            ))}
-          </ol>
+          <HistoryList entries={c.history} />
         </Section>
       ) : null}
     </Page>

@@ -1,6 +1,7 @@
-import { Field, Select, Table, TableBody, TableCell, TableHeader, TableRow, makeStyles, tokens } from '@fluentui/react-components';
+import { Table, TableBody, TableCell, TableHeader, TableRow, makeStyles, tokens } from '@fluentui/react-components';
 import { Link } from 'react-router-dom';
 import { SCAR_STATUSES, SCAR_STATUS_LABELS, STEP_INFO, type ScarStatus } from '@shared/schemas/corrective-action';
+import { StateFilter } from '../../features/ncrs/components/record-sections';
 import { Page } from '../../components/page';
 import { EmptyState } from '../../components/empty-state';
 import { HeadCell, ListToolbar, Loading, Pager, SearchInput, SortHeader, TableFrame } from '../../components/data-table';
@@ -11,7 +12,6 @@ import { DueDate, ScarStatusPill } from '../../features/corrective-actions/compo
 
 const useStyles = makeStyles({
   number: { fontFamily: tokens.fontFamilyMonospace, fontWeight: 700, color: tokens.colorBrandForeground1, textDecoration: 'none', whiteSpace: 'nowrap', ':hover': { textDecoration: 'underline' } },
-  filter: { minWidth: '200px' },
   muted: { color: tokens.colorNeutralForeground3, whiteSpace: 'nowrap' },
   nowrap: { whiteSpace: 'nowrap' },
   title: { maxWidth: '36ch', display: 'block', overflow: 'hidden', textOverflow: 'ellipsis', whiteSpace: 'nowrap' },
@@ -28,13 +28,7 @@ export function ScarsPage() {
     <Page title="Corrective actions" lead="Supplier corrective action requests, answered step by step in the 8D discipline and verified by the next lots (ISO 9001 §10.2).">
       <ListToolbar>
         <SearchInput label="Search number, title or NCR" value={lp.q} onChange={(q) => setLp({ q })} />
-        <Field label="State">
-          <Select className={s.filter} value={status ?? ''} onChange={(_, d) => setLp({ filters: { status: d.value || undefined } })}>
-            <option value="">All</option>
-            <option value="active">Not closed</option>
-            {SCAR_STATUSES.map((x) => <option key={x} value={x}>{SCAR_STATUS_LABELS[x]}</option>)}
-          </Select>
-        </Field>
+        <StateFilter value={status} states={SCAR_STATUSES} labels={SCAR_STATUS_LABELS} onChange={(v) => setLp({ filters: { status: v } })} />
       </ListToolbar>
       {list.isPending ? (
         <Loading />

@@ -1,9 +1,9 @@
-import { Body1, Caption1, MessageBar, MessageBarBody, MessageBarTitle, Subtitle1, Table, TableBody, TableCell, TableHeader, TableRow, makeStyles, mergeClasses, tokens } from '@fluentui/react-components';
-import type { ReactNode } from 'react';
+import { Body1, Caption1, MessageBar, MessageBarBody, MessageBarTitle, Table, TableBody, TableCell, TableHeader, TableRow, makeStyles, mergeClasses, tokens } from '@fluentui/react-components';
 import { Link, useSearchParams } from 'react-router-dom';
 import { STEP_INFO } from '@shared/schemas/corrective-action';
 import { LOT_STATUS_LABELS } from '@shared/schemas/receiving';
 import { Page } from '../../components/page';
+import { Section } from '../../components/section';
 import { EmptyState } from '../../components/empty-state';
 import { HeadCell, Loading, TableFrame } from '../../components/data-table';
 import { paths } from '../../config/paths';
@@ -15,8 +15,6 @@ import { NcrStatusPill, formatDay } from '../../features/ncrs/components/ncr-sta
 import { useLots } from '../../features/lots/api/lots';
 
 const useStyles = makeStyles({
-  section: { marginBottom: '28px' },
-  h2: { display: 'block', margin: '0 0 10px' },
   number: { fontFamily: tokens.fontFamilyMonospace, fontWeight: 700, color: tokens.colorBrandForeground1, textDecoration: 'none', whiteSpace: 'nowrap', ':hover': { textDecoration: 'underline' } },
   todo: { display: 'grid', gridTemplateColumns: 'repeat(auto-fill, minmax(280px, 1fr))', gap: '12px', listStyle: 'none', margin: 0, padding: 0 },
   todoItem: { border: `1px solid ${tokens.colorNeutralStroke2}`, borderLeft: `4px solid ${tokens.colorPaletteMarigoldBorderActive}`, borderRadius: tokens.borderRadiusMedium, padding: '10px 12px', display: 'flex', flexDirection: 'column', gap: '2px' },
@@ -26,16 +24,6 @@ const useStyles = makeStyles({
   muted: { color: tokens.colorNeutralForeground3 },
   code: { fontFamily: tokens.fontFamilyMonospace, fontWeight: 600, marginRight: '6px' },
 });
-
-function Section({ title, children }: { title: string; children: ReactNode }) {
-  const s = useStyles();
-  return (
-    <section className={s.section} aria-label={title}>
-      <Subtitle1 as="h2" className={s.h2}>{title}</Subtitle1>
-      {children}
-    </section>
-  );
-}
 
 /** What a supplier sees of Harrowgate: its requests to answer, its nonconformances, lots and notices. */
 export function SupplierDeskPage() {

@@ -1,6 +1,7 @@
 import type { ErrorEnvelope } from '@shared/schemas/common';
 import { importMappingSchema, type ImportMapping } from '@shared/schemas/receiving';
-import { ApiError, csrfHeader } from '../../../lib/api-client';
+import { ApiError } from '../../../lib/api-client';
+import { uploadWithProgress } from '../../../lib/upload';
 
 /** What POST /api/lots/:id/imports answers with when every row went in. */
 export interface ImportResult {
@@ -20,38 +21,6 @@ function importError(status: number, env: Partial<ErrorEnvelope>): ApiError {
   return new ApiError(status, env.error ?? 'error', env.message ?? `Import failed (${status})`, env.fields);
 }
 
-function send(lotId: string, file: File, mapping: ImportMapping, headers: Record<string, string>, onProgress: (fraction: number) => void, signal?: AbortSignal) {
-  return new Promise<{ status: number; body: unknown }>((resolve, reject) => {
-    const xhr = new XMLHttpRequest();
-    xhr.open('POST', `/api/lots/${lotId}/imports`);
-    xhr.withCredentials = true;
-    xhr.setRequestHeader('accept', 'application/json');
-    for (const [k, v] of Object.entries(headers)) xhr.setRequestHeader(k, v);
-    // fetch() cannot report upload progress; XMLHttpRequest can.
-    xhr.upload.onprogress = (e) => {
-      if (e.lengthComputable && e.total > 0) onProgress(e.loaded / e.total);
-    };
-    xhr.upload.onload = () => onProgress(1);
-    xhr.onload = () => {
-      let body: unknown;
-      try {
-        body = xhr.responseText ? JSON.parse(xhr.responseText) : undefined;
-      } catch {
-        body = undefined;
-      }
-      resolve({ status: xhr.status, body });
-    };
-    xhr.onerror = () => reject(new ApiError(0, 'offline', 'The server cannot be reached; nothing was imported. Try again when the connection is back.'));
-    xhr.onabort = () => reject(new DOMException('Import cancelled', 'AbortError'));
-    signal?.addEventListener('abort', () => xhr.abort(), { once: true });
-    const form = new FormData();
-    // The mapping goes first so the server has it before the bytes of the file.
-    form.append('mapping', JSON.stringify(mapping));
-    form.append('file', file, file.name);
-    xhr.send(form);
-  });
-}
-
 /**
  * POST /api/lots/:id/imports with upload progress (0…1) and the CSRF token. All or nothing on
  * the server: a 400 carries each bad row in `fields.rows` ("line N: …", one per line), a 409
@@ -59,15 +28,17 @@ function send(lotId: string, file: File, mapping: ImportMapping, headers: Record
  */
 export async function importGaugeCsv(lotId: string, file: File, mapping: ImportMapping, onProgress: (fraction: number) => void, signal?: AbortSignal): Promise<ImportResult> {
   const body = importMappingSchema.parse(mapping);
-  let res = await send(lotId, file, body, await csrfHeader(), onProgress, signal);
-  let env = (res.body ?? {}) as Partial<ErrorEnvelope>;
-  if (res.status === 403 && env.error === 'csrf') {
-    onProgress(0);
-    res = await send(lotId, file, body, await csrfHeader(true), onProgress, signal);
-    env = (res.body ?? {}) as Partial<ErrorEnvelope>;
-  }
-  if (res.status >= 200 && res.status < 300) return res.body as ImportResult;
-  throw importError(res.status, env);
+  return uploadWithProgress<ImportResult>({
+    url: `/api/lots/${lotId}/imports`,
+    // The mapping goes first so the server has it before the bytes of the file.
+    fields: [['mapping', JSON.stringify(body)]],
+    file,
+    onProgress,
+    signal,
+    offline: 'The server cannot be reached; nothing was imported. Try again when the connection is back.',
+    cancelled: 'Import cancelled',
+    refusal: importError,
+  });
 }
 
 /** The server's row problems ("line N: …"), one string each, from a refused import. */

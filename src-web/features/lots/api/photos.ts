@@ -1,6 +1,7 @@
 import type { ErrorEnvelope } from '@shared/schemas/common';
 import type { Photo } from '@shared/schemas/receiving';
-import { ApiError, csrfHeader } from '../../../lib/api-client';
+import { ApiError } from '../../../lib/api-client';
+import { uploadWithProgress } from '../../../lib/upload';
 
 export interface PhotoMeta {
   sampleId?: string;
@@ -15,47 +16,20 @@ function uploadError(status: number, env: Partial<ErrorEnvelope>): ApiError {
   return new ApiError(status, env.error ?? 'error', env.message ?? `Upload failed (${status})`, env.fields);
 }
 
-function send(lotId: string, file: File, meta: PhotoMeta, headers: Record<string, string>, onProgress: (fraction: number) => void, signal?: AbortSignal) {
-  return new Promise<{ status: number; body: unknown }>((resolve, reject) => {
-    const xhr = new XMLHttpRequest();
-    xhr.open('POST', `/api/lots/${lotId}/photos`);
-    xhr.withCredentials = true;
-    xhr.setRequestHeader('accept', 'application/json');
-    for (const [k, v] of Object.entries(headers)) xhr.setRequestHeader(k, v);
-    // fetch() cannot report upload progress; XMLHttpRequest can.
-    xhr.upload.onprogress = (e) => {
-      if (e.lengthComputable) onProgress(e.loaded / e.total);
-    };
-    xhr.onload = () => {
-      let body: unknown;
-      try {
-        body = xhr.responseText ? JSON.parse(xhr.responseText) : undefined;
-      } catch {
-        body = undefined;
-      }
-      resolve({ status: xhr.status, body });
-    };
-    xhr.onerror = () => reject(new ApiError(0, 'offline', 'The server cannot be reached; the photo was not sent. Try again when the connection is back.'));
-    xhr.onabort = () => reject(new DOMException('Upload cancelled', 'AbortError'));
-    signal?.addEventListener('abort', () => xhr.abort(), { once: true });
-    const form = new FormData();
-    if (meta.sampleId) form.append('sampleId', meta.sampleId);
-    if (meta.characteristicCode) form.append('characteristicCode', meta.characteristicCode);
-    if (meta.caption) form.append('caption', meta.caption);
-    // The file goes last so the text fields reach the server before the bytes.
-    form.append('file', file, file.name);
-    xhr.send(form);
-  });
-}
-
 /** POST /api/lots/:id/photos with upload progress (0…1), the CSRF token, and the error envelope mapped. */
-export async function uploadPhoto(lotId: string, file: File, meta: PhotoMeta, onProgress: (fraction: number) => void, signal?: AbortSignal): Promise<Photo> {
-  let res = await send(lotId, file, meta, await csrfHeader(), onProgress, signal);
-  let env = (res.body ?? {}) as Partial<ErrorEnvelope>;
-  if (res.status === 403 && env.error === 'csrf') {
-    res = await send(lotId, file, meta, await csrfHeader(true), onProgress, signal);
-    env = (res.body ?? {}) as Partial<ErrorEnvelope>;
-  }
-  if (res.status >= 200 && res.status < 300) return res.body as Photo;
-  throw uploadError(res.status, env);
+export function uploadPhoto(lotId: string, file: File, meta: PhotoMeta, onProgress: (fraction: number) => void, signal?: AbortSignal): Promise<Photo> {
+  const fields: [string, string][] = [];
+  if (meta.sampleId) fields.push(['sampleId', meta.sampleId]);
+  if (meta.characteristicCode) fields.push(['characteristicCode', meta.characteristicCode]);
+  if (meta.caption) fields.push(['caption', meta.caption]);
+  return uploadWithProgress<Photo>({
+    url: `/api/lots/${lotId}/photos`,
+    fields,
+    file,
+    onProgress,
+    signal,
+    offline: 'The server cannot be reached; the photo was not sent. Try again when the connection is back.',
+    cancelled: 'Upload cancelled',
+    refusal: uploadError,
+  });
 }
