@@ -10,9 +10,9 @@ export type { EightDStep, ScarStatus, StepStatus };
 export const SCAR_STATUS_LABELS: Record<ScarStatus, string> = {
   issued: 'Issued',
   acknowledged: 'Acknowledged',
-  'containment-in': 'Containment in',
-  'root-cause-in': 'Root cause in',
-  'actions-in': 'Actions in',
+  'containment-in': 'Containment answered',
+  'root-cause-in': 'Root cause answered',
+  'actions-in': 'Actions answered',
   accepted: 'Accepted',
   returned: 'Returned to supplier',
   verifying: 'Verifying',

@@ -8,7 +8,9 @@ import { copper } from '../theme/theme';
 
 const useStyles = makeStyles({
   root: { display: 'grid', gridTemplateColumns: '232px minmax(0, 1fr)', gridTemplateRows: '60px minmax(0, 1fr)', minHeight: '100vh',
-    '@media (max-width: 1100px)': { gridTemplateColumns: '196px minmax(0, 1fr)' } },
+    '@media (max-width: 1100px)': { gridTemplateColumns: '196px minmax(0, 1fr)' },
+    // A tablet held upright at the dock: the pages get the whole width, the menu becomes a row.
+    '@media (max-width: 900px)': { gridTemplateColumns: 'minmax(0, 1fr)', gridTemplateRows: '60px auto minmax(0, 1fr)' } },
   top: {
     gridColumn: '1 / -1',
     display: 'flex',
@@ -20,7 +22,7 @@ const useStyles = makeStyles({
     borderBottom: `3px solid ${copper.light}`,
   },
   brand: { display: 'flex', alignItems: 'center', gap: '10px', fontWeight: 700, fontSize: '19px', letterSpacing: '0.03em', color: 'inherit', textDecoration: 'none' },
-  plant: { opacity: 0.75, marginLeft: '10px', fontWeight: 400, fontSize: tokens.fontSizeBase300 },
+  plant: { opacity: 0.75, marginLeft: '10px', fontWeight: 400, fontSize: tokens.fontSizeBase300, '@media (max-width: 700px)': { display: 'none' } },
   nav: {
     backgroundColor: tokens.colorNeutralBackground2,
     borderRight: `1px solid ${tokens.colorNeutralStroke2}`,
@@ -28,6 +30,13 @@ const useStyles = makeStyles({
     display: 'flex',
     flexDirection: 'column',
     gap: '2px',
+    '@media (max-width: 900px)': {
+      flexDirection: 'row',
+      overflowX: 'auto',
+      padding: '6px 8px',
+      borderRight: 'none',
+      borderBottom: `1px solid ${tokens.colorNeutralStroke2}`,
+    },
   },
   link: {
     display: 'flex',
@@ -40,6 +49,7 @@ const useStyles = makeStyles({
     fontSize: tokens.fontSizeBase300,
     borderLeft: '4px solid transparent',
     ':hover': { backgroundColor: tokens.colorNeutralBackground1Hover },
+    '@media (max-width: 900px)': { whiteSpace: 'nowrap', flexShrink: 0, borderLeft: 'none', borderBottom: '4px solid transparent', padding: '0 12px' },
     ':focus-visible': { outline: `2px solid ${tokens.colorBrandStroke1}`, outlineOffset: '1px' },
   },
   active: {
@@ -47,9 +57,10 @@ const useStyles = makeStyles({
     fontWeight: 600,
     borderLeft: `4px solid ${copper.light}`,
     color: tokens.colorBrandForeground1,
+    '@media (max-width: 900px)': { borderLeft: 'none', borderBottom: `4px solid ${copper.light}` },
   },
-  main: { padding: '24px 28px 48px', minWidth: 0, backgroundColor: tokens.colorNeutralBackground1 },
-  foot: { marginTop: 'auto', padding: '12px 14px', color: tokens.colorNeutralForeground3 },
+  main: { padding: '24px 28px 48px', minWidth: 0, backgroundColor: tokens.colorNeutralBackground1, '@media (max-width: 900px)': { padding: '16px 16px 40px' } },
+  foot: { marginTop: 'auto', padding: '12px 14px', color: tokens.colorNeutralForeground3, '@media (max-width: 900px)': { display: 'none' } },
 });
 
 export function Shell({ user }: { user: SessionUser }) {

@@ -17,6 +17,7 @@ const useStyles = makeStyles({
   age: { fontWeight: 700, fontVariantNumeric: 'tabular-nums', whiteSpace: 'nowrap', fontSize: tokens.fontSizeBase400 },
   num: { fontVariantNumeric: 'tabular-nums', whiteSpace: 'nowrap' },
   muted: { color: tokens.colorNeutralForeground3, display: 'block' },
+  acre: { color: tokens.colorNeutralForeground3, display: 'block', whiteSpace: 'nowrap' },
   // The whole row opens the lot: a large target for a gloved finger (the link stays for keyboards).
   row: { height: '56px', cursor: 'pointer' },
   count: { color: tokens.colorNeutralForeground2, marginBottom: '10px', display: 'block' },
@@ -98,7 +99,7 @@ export function DockPage() {
                       <TableCell className={s.num}>
                         {l.sampling.sampleSize}
                         {l.sampling.inspectAll ? ' (100 %)' : ''}
-                        <Caption1 className={s.muted}>Ac {l.sampling.accept} / Re {l.sampling.reject}{l.sampling.severity !== 'normal' ? ` · ${l.sampling.severity}` : ''}</Caption1>
+                        <Caption1 className={s.acre}>Ac {l.sampling.accept} / Re {l.sampling.reject}{l.sampling.severity !== 'normal' ? ` · ${l.sampling.severity}` : ''}</Caption1>
                       </TableCell>
                       <TableCell><LotStatusPill status={l.status} /></TableCell>
                     </TableRow>
