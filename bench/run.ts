@@ -17,6 +17,7 @@ import { benchPhoto } from './photo.bench';
 import { benchImport } from './import.bench';
 import { benchBundle } from './bundle.bench';
 import { benchChart, benchChartFlat, benchLoad, chartFixture } from './charts.bench';
+import { benchDecision } from './decision.bench';
 
 const PGPORT = Number(process.env.PGPORT ?? 55434);
 const only = process.argv.slice(2);
@@ -42,8 +43,9 @@ async function main(): Promise<void> {
   };
   if (want('analyze')) log(await benchAnalyze());
   if (want('photo')) log(await benchPhoto());
-  const server = ['import', 'bundle', 'charts', 'load', 'flat'].some(want);
+  const server = ['import', 'bundle', 'charts', 'load', 'decision', 'flat'].some(want);
   if (server) {
+    console.log('· fresh bench database, demo scenario');
     const url = await freshDb('yokeline_bench');
     const pool = createPool(url, 4);
     await seedDemo(createDb(pool));
@@ -61,10 +63,12 @@ async function main(): Promise<void> {
       await eng.post(`/api/plans/${plan.body.id}/activate`, { version: plan.body.version });
       log(await benchImport(eng, pool, { supplierId: s.id, partId: p.id }));
     }
-    if (want('charts') || want('load') || want('flat')) {
+    if (want('charts') || want('load') || want('decision') || want('flat')) {
+      console.log('· 5 000 decided lots for the chart benchmarks');
       const f = await chartFixture(eng, pool);
       if (want('charts')) log(await benchChart(eng, pool, f));
       if (want('load')) log(await benchLoad(base, eng, f));
+      if (want('decision')) log(await benchDecision(url, eng, f, pool));
       // 10⁷ readings take minutes and ~2 GB of disk: only when asked for by name.
       if (only.includes('flat')) log(await benchChartFlat(eng, pool, f, Number(process.env.BENCH_BIG_ROWS ?? 10_000_000)));
     }

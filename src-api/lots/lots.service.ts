@@ -357,6 +357,9 @@ export class LotsService {
         .update(lot)
         .set({ status, decision: body.decision, decisionComment: body.comment, nonconformingCount: prop.nonconforming, decidedBy: actor.id, decidedAt: now, version: locked.version + 1, updatedAt: now })
         .where(eq(lot.id, lotId));
+      // Drift watch reads every charted history with this decision in it. That happens before
+      // the first audit record, whose lock on the audit chain every other audited write waits for.
+      const signals = await this.spc.planSignals(tx, locked.supplierId, locked.partId, { lotId, actor });
       await this.audit.record(tx, {
         actorId: actor.id,
         actorEmail: actor.email,
@@ -369,7 +372,7 @@ export class LotsService {
       });
       await this.updateSwitching(tx, actor, locked, body.decision === 'accept', prop.nonconforming);
       // Drift watch: new run-rule violations at this lot's points become drift signals.
-      await this.spc.refreshSignals(tx, locked.supplierId, locked.partId, { lotId, actor });
+      await this.spc.applySignals(tx, signals);
       // Corrective actions in verification count accepted lots of this supplier × part.
       await recordLotDecisionForCorrectiveActions(tx, locked, body.decision === 'accept', actor);
     });

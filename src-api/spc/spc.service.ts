@@ -87,6 +87,14 @@ export function toLimitView(v: ControlLimitRow): ControlLimit {
   };
 }
 
+/** Signals to raise for supplier × part, worked out by SpcService.planSignals. */
+export interface SignalPlan {
+  supplierId: string;
+  partId: string;
+  actor?: SessionUser;
+  charts: { loaded: Loaded; rows: Omit<typeof driftSignal.$inferInsert, 'createdAt'>[] }[];
+}
+
 export function toSignalView(s: DriftSignalRow): DriftSignal {
   return {
     id: s.id,
@@ -415,14 +423,23 @@ export class SpcService {
 
   /**
    * Raises drift signals for new run-rule violations of supplier × part, inside the caller's
-   * transaction (LotsService.decide calls it after recording a decision), and refreshes the
-   * die-wear forecast. With `lotId`, only that lot's points raise signals — the violations the
-   * decision is "new" for; without it every flagged point not yet recorded does (a backfill).
-   * A signal is raised once per chart × rule × lot (unique key), keeping the version that judged it.
+   * transaction, and refreshes the die-wear forecast. With `lotId`, only that lot's points raise
+   * signals — the violations the decision is "new" for; without it every flagged point not yet
+   * recorded does (a backfill). A signal is raised once per chart × rule × lot (unique key),
+   * keeping the version that judged it.
    */
   async refreshSignals(tx: Tx, supplierId: string, partId: string, opts: { lotId?: string; actor?: SessionUser } = {}): Promise<{ raised: number }> {
+    return this.applySignals(tx, await this.planSignals(tx, supplierId, partId, opts));
+  }
+
+  /**
+   * The reading half of refreshSignals: every charted characteristic's history judged, and the
+   * signals to raise. It takes no lock, so a caller (LotsService.decide) runs it before its first
+   * audit record: the audit chain's lock is then not held while whole histories are read.
+   */
+  async planSignals(tx: Tx, supplierId: string, partId: string, opts: { lotId?: string; actor?: SessionUser } = {}): Promise<SignalPlan> {
     const chars = (await this.repo.characteristics(tx, partId)).filter((c) => c.chartKind !== 'none');
-    let raised = 0;
+    const charts: SignalPlan['charts'] = [];
     for (const c of chars) {
       let l: Loaded;
       try {
@@ -440,45 +457,54 @@ export class SpcService {
           if (!first.has(key)) first.set(key, { p, f });
         }
       }
-      if (first.size) {
+      charts.push({
+        loaded: l,
+        rows: [...first.values()].map(({ p, f }) => ({
+          supplierId,
+          partId,
+          characteristicCode: c.code,
+          rule: f.rule,
+          chart: f.chart,
+          lotId: p.lotId,
+          lotRef: p.lotRef,
+          sampleId: p.sampleId,
+          serial: p.serial,
+          value: f.chart === 'dispersion' ? (p.dispersion ?? p.value) : p.value,
+          center: f.chart === 'dispersion' ? (p.limits?.dispersionCenter ?? null) : (p.limits?.center ?? null),
+          ucl: f.chart === 'dispersion' ? (p.limits?.dispersionUcl ?? null) : (p.limits?.ucl ?? null),
+          lcl: f.chart === 'dispersion' ? (p.limits?.dispersionLcl ?? null) : (p.limits?.lcl ?? null),
+          limitVersion: p.limitVersion,
+          message: f.message,
+        })),
+      });
+    }
+    return { supplierId, partId, actor: opts.actor, charts };
+  }
+
+  /** The writing half: the planned signals inserted (once each) and audited, forecasts stored. */
+  async applySignals(tx: Tx, plan: SignalPlan): Promise<{ raised: number }> {
+    let raised = 0;
+    for (const { loaded: l, rows } of plan.charts) {
+      if (rows.length) {
         const at = clockNow();
         const inserted = await tx
           .insert(driftSignal)
-          .values(
-            [...first.values()].map(({ p, f }) => ({
-              supplierId,
-              partId,
-              characteristicCode: c.code,
-              rule: f.rule,
-              chart: f.chart,
-              lotId: p.lotId,
-              lotRef: p.lotRef,
-              sampleId: p.sampleId,
-              serial: p.serial,
-              value: f.chart === 'dispersion' ? (p.dispersion ?? p.value) : p.value,
-              center: f.chart === 'dispersion' ? (p.limits?.dispersionCenter ?? null) : (p.limits?.center ?? null),
-              ucl: f.chart === 'dispersion' ? (p.limits?.dispersionUcl ?? null) : (p.limits?.ucl ?? null),
-              lcl: f.chart === 'dispersion' ? (p.limits?.dispersionLcl ?? null) : (p.limits?.lcl ?? null),
-              limitVersion: p.limitVersion,
-              message: f.message,
-              createdAt: at,
-            })),
-          )
+          .values(rows.map((r) => ({ ...r, createdAt: at })))
           .onConflictDoNothing()
           .returning({ id: driftSignal.id, rule: driftSignal.rule, lotRef: driftSignal.lotRef, limitVersion: driftSignal.limitVersion });
         if (inserted.length) {
           raised += inserted.length;
           await this.audit.record(tx, {
-            actorId: opts.actor?.id ?? null,
-            actorEmail: opts.actor?.email ?? null,
+            actorId: plan.actor?.id ?? null,
+            actorEmail: plan.actor?.email ?? null,
             action: 'spc.signals_raised',
             entity: 'drift_chart',
-            entityId: keyOf({ supplierId, partId, characteristicCode: c.code }),
-            after: { code: c.code, signals: inserted.map((s) => ({ id: s.id, rule: s.rule, lot: s.lotRef, limitVersion: s.limitVersion })) },
+            entityId: keyOf({ supplierId: plan.supplierId, partId: plan.partId, characteristicCode: l.char.code }),
+            after: { code: l.char.code, signals: inserted.map((s) => ({ id: s.id, rule: s.rule, lot: s.lotRef, limitVersion: s.limitVersion })) },
           });
         }
       }
-      await this.storeForecast(tx, l, opts.actor);
+      await this.storeForecast(tx, l, plan.actor);
     }
     return { raised };
   }

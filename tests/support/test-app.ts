@@ -11,6 +11,7 @@ import type { Pool } from 'pg';
 import { spawn } from 'node:child_process';
 import net from 'node:net';
 import path from 'node:path';
+import fs from 'node:fs';
 
 async function freePort(): Promise<number> {
   return new Promise((resolve, reject) => {
@@ -28,9 +29,17 @@ async function freePort(): Promise<number> {
  * Passport keeps its strategies in one module-level instance, so two apps in one process would
  * share them: a separate process is also the honest model of two servers behind a balancer.
  */
+/** The checkout's root: the nearest folder above this file with the package.json (from source or from dist/). */
+function repoRoot(): string {
+  for (let dir = __dirname; ; dir = path.dirname(dir)) {
+    if (fs.existsSync(path.join(dir, 'package.json')) && fs.existsSync(path.join(dir, 'src-api'))) return dir;
+    if (path.dirname(dir) === dir) throw new Error(`no checkout above ${__dirname}`);
+  }
+}
+
 export async function spawnApi(databaseUrl: string, env: Record<string, string> = {}): Promise<{ url: string; close: () => Promise<void> }> {
   const port = await freePort();
-  const main = path.resolve(__dirname, '../../dist/server/src-api/main.js');
+  const main = path.join(repoRoot(), 'dist/server/src-api/main.js');
   const child = spawn(process.execPath, [main], {
     env: { ...process.env, DATABASE_URL: databaseUrl, PORT: String(port), LOG_LEVEL: 'error', NODE_ENV: 'test', WORKERS: 'false', WEB_DIST: '/nonexistent', ...env },
     stdio: ['ignore', 'ignore', 'inherit'],
