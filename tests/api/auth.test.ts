@@ -175,6 +175,8 @@ describe('two API processes', () => {
 describe('rate limits', () => {
   it('answers 429 once one client makes too many sign-in attempts in a minute', async () => {
     const limited = await t.another({ LOGIN_RATE_PER_MINUTE: '5' });
+    // The counters are shared by every process: start this client's window afresh.
+    await t.pool.query(`delete from rate_limit where key like 'login:%'`);
     try {
       const statuses: number[] = [];
       for (let i = 0; i < 7; i++) statuses.push((await new Http(limited.url).login(`nobody${i}@harrowgate.test`, 'x')).status);
@@ -182,6 +184,25 @@ describe('rate limits', () => {
       expect(statuses.slice(5)).toEqual([429, 429]);
     } finally {
       await limited.close();
+    }
+  });
+
+  it('counts sign-in attempts across API processes, so a load balancer does not multiply the limit', async () => {
+    const [a, b] = await Promise.all([t.another({ LOGIN_RATE_PER_MINUTE: '5' }), t.another({ LOGIN_RATE_PER_MINUTE: '5' })]);
+    await t.pool.query(`delete from rate_limit where key like 'login:%'`);
+    try {
+      const answers = [];
+      // Alternating between the two processes, as a load balancer would.
+      for (let i = 0; i < 7; i++) answers.push(await new Http(i % 2 ? b.url : a.url).login(`nobody${i}@harrowgate.test`, 'x'));
+      expect(answers.map((r) => r.status)).toEqual([401, 401, 401, 401, 401, 429, 429]);
+      // The refusal says when to come back: within the minute's window.
+      const wait = Number(answers[6].headers.get('retry-after'));
+      expect(wait).toBeGreaterThan(0);
+      expect(wait).toBeLessThanOrEqual(60);
+      const [row] = (await t.pool.query<{ hits: number }>(`select hits from rate_limit where key like 'login:%'`)).rows;
+      expect(row.hits).toBe(7);
+    } finally {
+      await Promise.all([a.close(), b.close()]);
     }
   });
 });

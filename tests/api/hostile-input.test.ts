@@ -37,7 +37,7 @@ const HOSTILE: unknown[] = [
 ];
 
 async function rowCounts(): Promise<Record<string, number>> {
-  const { rows } = await t.pool.query<{ t: string }>(`select tablename as t from pg_tables where schemaname = 'public' and tablename not in ('session', '__drizzle_migrations') order by 1`);
+  const { rows } = await t.pool.query<{ t: string }>(`select tablename as t from pg_tables where schemaname = 'public' and tablename not in ('session', 'rate_limit', '__drizzle_migrations') order by 1`);
   const out: Record<string, number> = {};
   for (const r of rows) out[r.t] = Number((await t.pool.query(`select count(*) as n from "${r.t}"`)).rows[0].n);
   return out;
