@@ -1,16 +1,8 @@
 import { z } from 'zod';
+import { ROLES } from './vocabulary';
 
-export const ROLES = ['inspector', 'engineer', 'supplier', 'auditor', 'admin'] as const;
+export { ROLES, ROLE_LABELS, type Role } from './vocabulary';
 export const roleSchema = z.enum(ROLES, { message: `role must be one of ${ROLES.join(', ')}` });
-export type Role = z.infer<typeof roleSchema>;
-
-export const ROLE_LABELS: Record<Role, string> = {
-  inspector: 'Receiving inspector',
-  engineer: 'Quality engineer',
-  supplier: 'Supplier',
-  auditor: 'Auditor',
-  admin: 'Administrator',
-};
 
 export const PASSWORD_MIN = 12;
 export const PASSWORD_MAX = 200;

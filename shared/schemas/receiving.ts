@@ -1,32 +1,9 @@
 import { z } from 'zod';
 import { INSPECTION_LEVELS, AQL_VALUES, SEVERITIES } from '../compute/sampling';
 import { pageQuerySchema, text } from './common';
+import { LOT_STATUSES } from './vocabulary';
 
-export const LOT_STATUSES = ['received', 'inspecting', 'accepted', 'rejected', 'on-hold', 'released', 'returned', 'scrapped', 'closed'] as const;
-export type LotStatus = (typeof LOT_STATUSES)[number];
-export const LOT_STATUS_LABELS: Record<LotStatus, string> = {
-  received: 'Waiting',
-  inspecting: 'Inspecting',
-  accepted: 'Accepted',
-  rejected: 'Rejected',
-  'on-hold': 'On hold',
-  released: 'Released',
-  returned: 'Returned',
-  scrapped: 'Scrapped',
-  closed: 'Closed',
-};
-/** Trade colours: green good, amber waiting or held for a decision, red rejected. */
-export const LOT_STATUS_TONE: Record<LotStatus, 'ok' | 'pending' | 'bad' | 'info'> = {
-  received: 'info',
-  inspecting: 'pending',
-  accepted: 'ok',
-  rejected: 'bad',
-  'on-hold': 'bad',
-  released: 'ok',
-  returned: 'bad',
-  scrapped: 'bad',
-  closed: 'info',
-};
+export { LOT_STATUSES, LOT_STATUS_LABELS, LOT_STATUS_TONE, type LotStatus } from './vocabulary';
 
 export const PACKAGING = ['good', 'damaged', 'wet', 'poor'] as const;
 

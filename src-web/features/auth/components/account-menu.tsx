@@ -1,6 +1,7 @@
 import { Button, makeStyles, tokens } from '@fluentui/react-components';
 import { lazy, Suspense, useRef, useState } from 'react';
-import { ROLE_LABELS, type SessionUser } from '@shared/schemas/auth';
+import type { SessionUser } from '@shared/schemas/auth';
+import { ROLE_LABELS } from '@shared/schemas/vocabulary';
 
 // The menu (Fluent's menu and its positioning engine) and the password dialog load the first
 // time the account button is hovered, focused or pressed: they are not part of the first download.

@@ -1,4 +1,4 @@
-import { LOT_STATUS_LABELS, LOT_STATUS_TONE, type LotStatus } from '@shared/schemas/receiving';
+import { LOT_STATUS_LABELS, LOT_STATUS_TONE, type LotStatus } from '@shared/schemas/vocabulary';
 import { StatusPill } from '../../../components/status-pill';
 
 /** The lot's state in words, coloured as the trade colours it (StatusPill adds a glyph too). */
