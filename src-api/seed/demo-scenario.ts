@@ -18,12 +18,14 @@ import { expectedReadings } from '../../shared/compute/evaluate';
 import type { Characteristic, Plan } from '../../shared/schemas/master-data';
 import type { SessionUser } from '../../shared/schemas/auth';
 import type { ReadingInput } from '../../shared/schemas/receiving';
+import type { EightDStep, Scar } from '../../shared/schemas/corrective-action';
 import { Random } from './random';
 import { NcrsService } from '../ncrs/ncrs.service';
 import { CorrectiveActionsService } from '../corrective-actions/corrective-actions.service';
 import { UsersRepository } from '../users/users.repository';
 import { toSessionUser } from '../auth/auth.service';
 import { DEMO_PASSWORD } from './demo-users';
+import { SpcService } from '../spc/spc.service';
 
 const DAY = 86_400_000;
 
@@ -114,6 +116,7 @@ export async function seedDemoScenario(app: INestApplicationContext, users: { in
   const gauges = app.get(GaugesService);
   const plans = app.get(PlansService);
   const lots = app.get(LotsService);
+  const spc = app.get(SpcService);
   const { engineer, inspector } = users;
   const rnd = new Random(20261202);
   const today = new Date(new Date().toISOString().slice(0, 10) + 'T07:00:00Z');
@@ -147,6 +150,9 @@ export async function seedDemoScenario(app: INestApplicationContext, users: { in
     const plan: Plan = built.plan;
     const sid = supplierId(fam.supplier);
     const weeks = Math.floor(182 / fam.everyDays);
+    // The engineer freezes each chart's limits once ten weeks of supply show a stable process, so
+    // later lots (Northgate's wearing die among them) are judged against that baseline.
+    const freezeAfter = Math.ceil(70 / fam.everyDays) - 1;
     for (let k = 0; k <= weeks; k++) {
       const at = new Date(start.getTime() + k * fam.everyDays * DAY + rnd.int(0, 8) * 3600_000);
       if (at > today) break;
@@ -184,6 +190,20 @@ export async function seedDemoScenario(app: INestApplicationContext, users: { in
           await lots.decide(inspector, l.id, { decision, comment, version: 1 });
           if (decision === 'reject' && rejectThis) rejectedLotId = l.id;
         });
+        if (k === freezeAfter) {
+          await runAsOf(new Date(at.getTime() + 26 * 3600_000), async () => {
+            for (const c of plan.characteristics) {
+              if (c.chartKind === 'none') continue;
+              await spc.freeze(engineer, {
+                supplierId: sid,
+                partId: built.part.id,
+                characteristicCode: c.code,
+                baseline: { kind: 'dates', from: start.toISOString().slice(0, 10), to: at.toISOString().slice(0, 10) },
+                reason: 'Phase I over the first ten weeks of supply: the process is stable and capable; new lots are judged against these limits.',
+              });
+            }
+          });
+        }
       });
     }
   }
@@ -194,7 +214,8 @@ export async function seedDemoScenario(app: INestApplicationContext, users: { in
 /**
  * The newest Northgate lot was rejected for burr: raise its NCR, review it, disposition it
  * (sort the lot, scrap the two cores measured over the limit, e-signed), and issue the SCAR.
- * Northgate has answered containment (D3, accepted); the root cause (D4) is still owed.
+ * Northgate has answered its team, the problem and containment (D1–D3, accepted); the root
+ * cause (D4) is still owed.
  */
 async function reviewRejectedLot(app: INestApplicationContext, users: { inspector: SessionUser; engineer: SessionUser }, lotId: string): Promise<void> {
   const ncrs = app.get(NcrsService);
@@ -228,13 +249,30 @@ async function reviewRejectedLot(app: INestApplicationContext, users: { inspecto
   const supplierUser = await app.get(UsersRepository).byEmail('quality@northgate-lamination.test');
   if (!supplierUser) return;
   const sup = toSessionUser(supplierUser);
+  const stepVersion = (s: Scar, step: EightDStep) => s.steps.find((x) => x.step === step)!.version;
   let cur = await runAsOf(new Date(at + 30 * 3600_000), () => scars.get(sup, scar.id));
+  cur = await runAsOf(new Date(at + 30.5 * 3600_000), () =>
+    scars.putStep(sup, scar.id, 'D1', {
+      answer: { members: [{ name: 'Mara Lind', role: 'Quality lead, team owner' }, { name: 'Jonas Brandt', role: 'Press line 3 tool setter' }, { name: 'Elif Sarac', role: 'Tool room, die maintenance' }] },
+      submit: true,
+      version: stepVersion(cur, 'D1'),
+    }),
+  );
+  cur = await runAsOf(new Date(at + 30.7 * 3600_000), () =>
+    scars.putStep(sup, scar.id, 'D2', {
+      answer: { description: 'Lot delivered to Harrowgate with burr above 50 µm on the slot edges of 2 of 13 sampled cores (55–57 µm); burr on our own patrol checks has risen over eight weeks of production on press line 3, die HG-S48W-B.' },
+      submit: true,
+      version: stepVersion(cur, 'D2'),
+    }),
+  );
   cur = await runAsOf(new Date(at + 31 * 3600_000), () =>
     scars.putStep(sup, scar.id, 'D3', {
       answer: { actions: 'Stock at Northgate and the two pallets in transit checked for burr with a gauge on every slot edge; cores over 45 µm held.', atSupplier: { checked: 640, nonconforming: 9 }, inTransit: { checked: 380, nonconforming: 2 }, cleanMark: 'Green dot on the pallet label', effectiveFrom: new Date(at + 31 * 3600_000).toISOString().slice(0, 10) },
       submit: true,
-      version: cur.version,
+      version: stepVersion(cur, 'D3'),
     }),
   );
-  await runAsOf(new Date(at + 34 * 3600_000), () => scars.reviewStep(engineer, scar.id, 'D3', { decision: 'accept', version: cur.version, comment: 'Containment accepted. Root cause and the die service plan are next.' }));
+  cur = await runAsOf(new Date(at + 34 * 3600_000), () => scars.reviewStep(engineer, scar.id, 'D3', { decision: 'accept', version: stepVersion(cur, 'D3'), comment: 'Containment accepted. Root cause and the die service plan are next.' }));
+  cur = await runAsOf(new Date(at + 34.2 * 3600_000), () => scars.reviewStep(engineer, scar.id, 'D1', { decision: 'accept', version: stepVersion(cur, 'D1') }));
+  await runAsOf(new Date(at + 34.4 * 3600_000), () => scars.reviewStep(engineer, scar.id, 'D2', { decision: 'accept', version: stepVersion(cur, 'D2') }));
 }
