@@ -6,8 +6,9 @@ import { EmptyState } from '../../components/empty-state';
 import { Loading } from '../../components/data-table';
 import { paths } from '../../config/paths';
 import { useSupplierNcr } from '../../features/ncrs/api/ncrs';
-import { NcrStatusPill, formatDay } from '../../features/ncrs/components/ncr-status';
+import { NcrStatusPill } from '../../features/ncrs/components/ncr-status';
 import { NcrPhotos } from '../../features/ncrs/components/ncr-photos';
+import { formatDay } from '../../lib/format';
 
 const useStyles = makeStyles({
   card: { border: `1px solid ${tokens.colorNeutralStroke2}`, borderRadius: tokens.borderRadiusLarge, padding: '14px 16px', marginBottom: '20px' },

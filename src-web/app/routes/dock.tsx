@@ -7,9 +7,10 @@ import { HeadCell, Loading, Pager, TableFrame } from '../../components/data-tabl
 import { paths } from '../../config/paths';
 import { useMe } from '../../features/auth/api/get-me';
 import { useLots } from '../../features/lots/api/lots';
-import { LotStatusPill, formatAge, formatDateTime } from '../../features/lots/components/lot-status';
+import { LotStatusPill, formatAge } from '../../features/lots/components/lot-status';
 import { statusColours } from '../../theme/theme';
 import { useThemeMode } from '../../theme/theme-mode';
+import { formatWhen } from '../../lib/format';
 
 const useStyles = makeStyles({
   receive: { minHeight: '56px', minWidth: '220px', fontSize: tokens.fontSizeBase500, paddingLeft: '28px', paddingRight: '28px' },
@@ -86,7 +87,7 @@ export function DockPage() {
                         <Caption1 className={s.muted}>{l.supplierLotNumber}</Caption1>
                       </TableCell>
                       <TableCell>
-                        <span className={s.age} style={hours >= LONG_WAIT_H ? { color: amber } : undefined} title={`Received ${formatDateTime(l.receivedAt)}`}>{formatAge(l.receivedAt, now)}</span>
+                        <span className={s.age} style={hours >= LONG_WAIT_H ? { color: amber } : undefined} title={`Received ${formatWhen(l.receivedAt)}`}>{formatAge(l.receivedAt, now)}</span>
                       </TableCell>
                       <TableCell>
                         <strong>{l.supplierCode}</strong>

@@ -18,6 +18,7 @@ import { RaiseNcrPanel } from '../../features/ncrs/components/raise-ncr-panel';
 import { useCanManageMasterData } from '../../features/auth/hooks/use-can';
 import { chartColours } from '../../theme/theme';
 import { useThemeMode } from '../../theme/theme-mode';
+import { formatDay } from '../../lib/format';
 
 // The chart library loads only when a chart is opened.
 const ControlCharts = lazy(() => import('../../features/drift/components/control-charts'));
@@ -59,9 +60,9 @@ function LimitsLine({ chart }: { chart: ChartResponse }) {
     <span>
       <StatusPill tone="ok">Limits version {l.version}</StatusPill>{' '}
       <span className={s.muted}>
-        frozen {l.frozenAt.slice(0, 10)}
+        frozen {formatDay(l.frozenAt)}
         {l.frozenByEmail ? ` by ${l.frozenByEmail}` : ''} from the {l.baseline.description}
-        {l.excludedPoints.length ? `, ${l.excludedPoints.length} excluded (lots ${[...new Set(l.excludedPoints.map((p) => p.lotRef))].join(', ')})` : ''}: “{l.reason}”. Centre {fmt(l.center)}
+        {l.excludedPoints.length ? `, ${l.excludedPoints.length} excluded (lots ${[...new Set(l.excludedPoints.map((p) => p.lotRef))].join(', ')})` : ''}: “{l.reason.replace(/[.\s]+$/, '')}”. Centre {fmt(l.center)}
         {l.ucl != null ? `, limits ${fmt(l.lcl)} – ${fmt(l.ucl)}` : ''}.
         {chart.segments.some((g) => g.limitVersion === l.version) ? '' : ' It applies to lots decided from now on; the points shown were judged before it.'}
       </span>
@@ -116,7 +117,7 @@ function SignalsTable({ chart, onAck, onRaise, canAck }: { chart: ChartResponse;
               </TableCell>
               <TableCell>{g.message}</TableCell>
               <TableCell>{g.limitVersion === null ? 'trial limits' : `version ${g.limitVersion}`}</TableCell>
-              <TableCell className={s.num}>{g.createdAt.slice(0, 10)}</TableCell>
+              <TableCell className={s.num}>{formatDay(g.createdAt)}</TableCell>
               <TableCell>
                 {g.status === 'open' ? <StatusPill tone="pending">Open</StatusPill> : g.status === 'acknowledged' ? <StatusPill tone="neutral" title={g.ackNote ?? undefined}>Acknowledged</StatusPill> : <StatusPill tone="info">NCR opened</StatusPill>}
                 {g.ncrId ? (

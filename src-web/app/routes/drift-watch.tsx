@@ -9,6 +9,7 @@ import { StatusPill, type Tone } from '../../components/status-pill';
 import { paths } from '../../config/paths';
 import { useWatch } from '../../features/drift/api/drift';
 import { lotsText } from '../../features/drift/components/forecast-panel';
+import { formatDay } from '../../lib/format';
 
 const useStyles = makeStyles({
   group: { backgroundColor: tokens.colorNeutralBackground3 },
@@ -117,7 +118,7 @@ export function DriftWatchPage() {
                         </TableCell>
                         <TableCell>{r.limitVersion ? `version ${r.limitVersion}` : <span className={s.muted}>trial</span>}</TableCell>
                         <TableCell className={s.num}>{r.lots}</TableCell>
-                        <TableCell className={s.num}>{r.lastLotAt ? r.lastLotAt.slice(0, 10) : '—'}</TableCell>
+                        <TableCell className={s.num}>{r.lastLotAt ? formatDay(r.lastLotAt) : '—'}</TableCell>
                       </TableRow>
                     ))}
                   </Fragment>

@@ -6,6 +6,7 @@ import { EmptyState } from '../../components/empty-state';
 import { FilterSelect, FilterToggles, HeadCell, ListToolbar, Loading, Pager, SearchInput, SortHeader, TableFrame } from '../../components/data-table';
 import { StatusPill } from '../../components/status-pill';
 import { useListParams } from '../../lib/use-list-params';
+import { formatCalendarDay } from '../../lib/format';
 import { useGauges, type CalibrationFilter } from '../../features/gauges/api/gauges';
 import { CalibrationPill } from '../../features/gauges/components/calibration-pill';
 import { GaugePanel, GAUGE_STATUS_LABELS } from '../../features/gauges/components/gauge-panel';
@@ -91,7 +92,7 @@ export function GaugesPage() {
                   <TableCell className={s.desc}>{g.description}</TableCell>
                   <TableCell className={s.num}>{g.resolution} {g.unit}</TableCell>
                   <TableCell className={s.num}>{range(g)}</TableCell>
-                  <TableCell className={s.num}>{g.calibrationDueOn}</TableCell>
+                  <TableCell className={s.num}>{formatCalendarDay(g.calibrationDueOn)}</TableCell>
                   <TableCell className={s.nowrap}>
                     <CalibrationPill gauge={g} />
                     {/* In service is the normal case; only the exception is said. */}

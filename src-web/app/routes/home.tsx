@@ -11,6 +11,7 @@ import { StatusPill, type Tone } from '../../components/status-pill';
 import { paths } from '../../config/paths';
 import { navFor } from '../../config/nav';
 import { useDashboard } from '../../features/dashboard/api/dashboard';
+import { formatCalendarDay, formatWhen } from '../../lib/format';
 
 // The first page after sign-in: counts and short lists only, no chart library, no feature modules.
 const useStyles = makeStyles({
@@ -54,8 +55,6 @@ const useStyles = makeStyles({
 
 const n = (v: number) => v.toLocaleString('en-GB');
 const plural = (v: number, one: string, many = `${one}s`) => `${n(v)} ${v === 1 ? one : many}`;
-const when = (iso: string) => new Date(iso).toLocaleString('en-GB', { day: 'numeric', month: 'short', hour: '2-digit', minute: '2-digit' });
-const day = (iso: string) => new Date(`${iso}T00:00:00Z`).toLocaleDateString('en-GB', { day: 'numeric', month: 'short', year: 'numeric', timeZone: 'UTC' });
 
 /** "45 min", "5 h", "3 d 4 h": how long the oldest lot has waited. */
 function age(hours: number): string {
@@ -97,7 +96,7 @@ function InspectorHome({ d }: { d: InspectorDashboard }) {
           <Tile label="Inspection under way" value={d.dock.inspecting} to={paths.dock} hint="Of the lots waiting" />
         </div>
       </Section>
-      <Section title={`Today, ${day(d.today.date)}`}>
+      <Section title={`Today, ${formatCalendarDay(d.today.date)}`}>
         <div className={s.tiles}>
           <Tile label="Received today" value={d.today.received} to={todays} />
           <Tile label="Decided today" value={d.today.decided} hint={`${plural(d.today.accepted, 'accepted', 'accepted')}, ${plural(d.today.rejected, 'rejected', 'rejected')}`} tone={d.today.rejected ? 'bad' : 'info'} />
@@ -115,7 +114,7 @@ function StepList({ items, to }: { items: (Omit<DashboardDueStep, 'dueOn'> & { d
         <li key={`${x.scarId}:${x.step}`} className={s.item}>
           <Link className={s.link} to={to(x.scarId)}>{x.scarNumber} · {x.step} {x.title}</Link>
           <span className={s.muted}>{x.status === 'returned' ? 'Returned: please revise' : x.supplierCode}</span>
-          {x.dueOn ? <StatusPill tone={x.overdue ? 'bad' : 'pending'}>{x.overdue ? `Overdue since ${day(x.dueOn)}` : `Due ${day(x.dueOn)}`}</StatusPill> : <StatusPill tone="neutral">No due date</StatusPill>}
+          {x.dueOn ? <StatusPill tone={x.overdue ? 'bad' : 'pending'}>{x.overdue ? `Overdue since ${formatCalendarDay(x.dueOn)}` : `Due ${formatCalendarDay(x.dueOn)}`}</StatusPill> : <StatusPill tone="neutral">No due date</StatusPill>}
         </li>
       ))}
     </ul>
@@ -130,7 +129,7 @@ function EngineerHome({ d }: { d: EngineerDashboard }) {
         <div className={s.tiles}>
           <Tile label="NCRs not closed" value={d.ncrs.notClosed} to={`${paths.ncrs}?status=active`} tone="pending" hint={`${n(d.ncrs.open)} open · ${n(d.ncrs.inReview)} in review · ${n(d.ncrs.dispositioned)} dispositioned`} testId="tile-ncrs" />
           <Tile label="Held lots without an NCR" value={d.ncrs.heldLotsWithoutNcr} to={`${paths.ncrs}?tab=waiting`} tone="bad" />
-          <Tile label="New drift signals" value={d.driftSignals.open} to={paths.drift} tone="pending" hint={d.driftSignals.latestAt ? `Latest ${when(d.driftSignals.latestAt)}` : 'None waiting for review'} testId="tile-drift" />
+          <Tile label="New drift signals" value={d.driftSignals.open} to={paths.drift} tone="pending" hint={d.driftSignals.latestAt ? `Latest ${formatWhen(d.driftSignals.latestAt)}` : 'None waiting for review'} testId="tile-drift" />
         </div>
       </Section>
       <Section title="Corrective actions">
@@ -151,7 +150,7 @@ function EngineerHome({ d }: { d: EngineerDashboard }) {
               <li key={g.id} className={s.item}>
                 <span className={s.mono}>{g.assetTag}</span>
                 <span>{g.description}</span>
-                <StatusPill tone={g.overdue ? 'bad' : 'pending'}>{g.overdue ? `Overdue since ${day(g.calibrationDueOn)}` : `Due ${day(g.calibrationDueOn)}`}</StatusPill>
+                <StatusPill tone={g.overdue ? 'bad' : 'pending'}>{g.overdue ? `Overdue since ${formatCalendarDay(g.calibrationDueOn)}` : `Due ${formatCalendarDay(g.calibrationDueOn)}`}</StatusPill>
               </li>
             ))}
           </ul>
@@ -172,7 +171,7 @@ function SupplierHome({ d }: { d: SupplierDashboard }) {
               <li key={x.id} className={s.notice}>
                 <Link className={s.link} to={`${paths.supplierDesk}?notice=${x.id}`}>{x.title}</Link>
                 <Body1>{x.body}</Body1>
-                <Caption1 className={s.muted}>{when(x.createdAt)}</Caption1>
+                <Caption1 className={s.muted}>{formatWhen(x.createdAt)}</Caption1>
               </li>
             ))}
           </ul>
@@ -200,7 +199,7 @@ function AuditorHome({ d }: { d: AuditorDashboard }) {
       <Section title="Audit chain">
         <div className={s.item}>
           <StatusPill tone={tone}>{c.ok ? 'Chain intact' : `Chain broken at record ${c.firstBrokenId ?? '?'}`}</StatusPill>
-          <span>{plural(c.count, 'record')} verified {when(c.checkedAt)}{c.cached ? ' (re-checked at most once a minute)' : ''}.</span>
+          <span>{plural(c.count, 'record')} verified {formatWhen(c.checkedAt)}{c.cached ? ' (re-checked at most once a minute)' : ''}.</span>
           <Link className={s.link} to={paths.ledger}>History ledger</Link>
         </div>
       </Section>
@@ -221,7 +220,7 @@ function AuditorHome({ d }: { d: AuditorDashboard }) {
                 {d.recent.map((e) => (
                   <TableRow key={e.id}>
                     <TableCell className={s.mono}>{e.id}</TableCell>
-                    <TableCell>{when(e.at)}</TableCell>
+                    <TableCell>{formatWhen(e.at)}</TableCell>
                     <TableCell>{e.actorEmail ?? 'system'}</TableCell>
                     <TableCell><span className={s.mono}>{e.action}</span>{e.reason ? <Caption1 className={s.muted}> · {e.reason}</Caption1> : null}</TableCell>
                     <TableCell>{e.entity === 'lot' ? <Link className={s.link} to={paths.ledgerLot(e.entityId)}>Lot story</Link> : <span className={s.muted}>{e.entity}</span>}</TableCell>
@@ -254,7 +253,7 @@ function AdminHome({ d }: { d: AdminDashboard }) {
               <li key={u.id} className={s.item}>
                 <span className={s.label}>{u.name}</span>
                 <span className={s.muted}>{u.email} · {ROLE_LABELS[u.role]}</span>
-                <StatusPill tone="bad">Locked until {when(u.lockedUntil)}</StatusPill>
+                <StatusPill tone="bad">Locked until {formatWhen(u.lockedUntil)}</StatusPill>
               </li>
             ))}
           </ul>

@@ -12,6 +12,7 @@ import { ExportButton } from '../../features/ledger/components/export-button';
 import { PlanRevisions } from '../../features/ledger/components/plan-revisions';
 import { Timeline, samplingText } from '../../features/ledger/components/timeline';
 import { useCanReadLedger } from './ledger';
+import { formatWhen } from '../../lib/format';
 
 const useStyles = makeStyles({
   back: { display: 'inline-block', marginBottom: '8px', color: tokens.colorBrandForeground1 },
@@ -37,7 +38,7 @@ const useStyles = makeStyles({
   link: { color: tokens.colorBrandForeground1 },
 });
 
-const when = (iso: string | null) => (iso ? new Date(iso).toLocaleString(undefined, { dateStyle: 'medium', timeStyle: 'short' }) : '—');
+const when = (iso: string | null) => (iso ? formatWhen(iso) : '—');
 
 /** One lot's whole story for an auditor: facts, the timeline, the plan's revisions, and the report. */
 export function LedgerLotPage() {

@@ -17,11 +17,12 @@ import { usePhotoUploads } from '../../features/lots/api/use-photo-uploads';
 import { BenchSheet } from '../../features/lots/components/bench-sheet';
 import { ImportGaugeCsv } from '../../features/lots/components/import-dialog';
 import { DecisionPanel } from '../../features/lots/components/decision-panel';
-import { LotStatusPill, formatDateTime, isOpenLot } from '../../features/lots/components/lot-status';
+import { LotStatusPill, isOpenLot } from '../../features/lots/components/lot-status';
 import { PhotoSection } from '../../features/lots/components/photos';
 import { PACKAGING_LABELS } from '../../features/lots/components/receive-lot-dialog';
 import { SamplingBox, samplingSummary } from '../../features/lots/components/sampling-box';
 import { SwitchingBox } from '../../features/lots/components/switching-box';
+import { formatWhen } from '../../lib/format';
 
 // Printing the Lot file: the page alone, without the app's frame or its buttons.
 const usePrintStyles = makeStaticStyles(`
@@ -117,7 +118,7 @@ function Paperwork({ lot, canWrite }: { lot: Lot; canWrite: boolean }) {
           {error ? <Caption1 role="alert" style={{ color: tokens.colorPaletteRedForeground1, display: 'block' }}>{error}</Caption1> : null}
         </dd>
         <dt className={s.dt}>Received</dt>
-        <dd className={s.dd}>{formatDateTime(lot.receivedAt)}</dd>
+        <dd className={s.dd}>{formatWhen(lot.receivedAt)}</dd>
         <dt className={s.dt}>Plan</dt>
         <dd className={s.dd}>revision {lot.planRevision}</dd>
       </dl>
@@ -144,7 +145,7 @@ function History({ lot, ledger }: { lot: Lot; ledger: boolean }) {
       <ol className={s.history}>
         {events.map((e, i) => (
           <li key={i} className={s.event}>
-            <span className={s.when}>{formatDateTime(e.at)}</span>
+            <span className={s.when}>{formatWhen(e.at)}</span>
             <span>{e.text}</span>
           </li>
         ))}

@@ -8,9 +8,10 @@ import { paths } from '../../config/paths';
 import { useListParams } from '../../lib/use-list-params';
 import { useMe } from '../../features/auth/api/get-me';
 import { useLots } from '../../features/lots/api/lots';
-import { LotStatusPill, formatDateTime } from '../../features/lots/components/lot-status';
+import { LotStatusPill } from '../../features/lots/components/lot-status';
 import { useParts } from '../../features/parts/api/parts';
 import { useSuppliers } from '../../features/suppliers/api/suppliers';
+import { formatWhen } from '../../lib/format';
 
 const useStyles = makeStyles({
   touch: { minHeight: '44px' },
@@ -110,7 +111,7 @@ export function LotsPage() {
                   <TableCell>{l.partNumber} <Caption1 className={s.muted}>rev {l.partRevision}</Caption1></TableCell>
                   <TableCell className={s.num}>{l.quantity}</TableCell>
                   <TableCell className={s.num}>{l.sampling.sampleSize}{l.sampling.inspectAll ? ' (100 %)' : ''}</TableCell>
-                  <TableCell className={s.num}>{formatDateTime(l.receivedAt)}</TableCell>
+                  <TableCell className={s.num}>{formatWhen(l.receivedAt)}</TableCell>
                   <TableCell><LotStatusPill status={l.status} /></TableCell>
                 </TableRow>
               ))}

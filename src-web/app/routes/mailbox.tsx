@@ -3,6 +3,7 @@ import { useQuery } from '@tanstack/react-query';
 import { api } from '../../lib/api-client';
 import { Page } from '../../components/page';
 import { EmptyState } from '../../components/empty-state';
+import { formatWhen } from '../../lib/format';
 
 interface Mail { id: number; receivedAt: string; from: string; to: string[]; subject: string; text: string }
 
@@ -22,7 +23,7 @@ export function MailboxPage() {
       {q.data?.items.map((m) => (
         <article key={m.id} className={s.item}>
           <Subtitle2 as="h2">{m.subject}</Subtitle2>
-          <Caption1 as="p">To {m.to.join(', ')} · {new Date(m.receivedAt).toLocaleString()}</Caption1>
+          <Caption1 as="p">To {m.to.join(', ')} · {formatWhen(m.receivedAt, true)}</Caption1>
           <Body1 as="pre" className={s.body}>{m.text}</Body1>
         </article>
       ))}

@@ -11,12 +11,13 @@ import { paths } from '../../config/paths';
 import { ApiError } from '../../lib/api-client';
 import { useMe } from '../../features/auth/api/get-me';
 import { useNcr, useNcrTransition } from '../../features/ncrs/api/ncrs';
-import { NcrStatusPill, formatMoney, formatValue, formatWhen } from '../../features/ncrs/components/ncr-status';
+import { NcrStatusPill, formatMoney, formatValue } from '../../features/ncrs/components/ncr-status';
 import { HistoryList } from '../../features/ncrs/components/record-sections';
 import { Section } from '../../components/section';
 import { NcrPhotos } from '../../features/ncrs/components/ncr-photos';
 import { ReviewBoard } from '../../features/ncrs/components/review-board';
 import { IssueScarDialog } from '../../features/ncrs/components/issue-scar-dialog';
+import { formatWhen } from '../../lib/format';
 
 const useStyles = makeStyles({
   head: { display: 'flex', gap: '8px', alignItems: 'center', flexWrap: 'wrap' },

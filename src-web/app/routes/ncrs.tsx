@@ -10,9 +10,10 @@ import { useListParams } from '../../lib/use-list-params';
 import { paths } from '../../config/paths';
 import { useMe } from '../../features/auth/api/get-me';
 import { useHeldLots, useNcrs } from '../../features/ncrs/api/ncrs';
-import { NcrStatusPill, formatDay, formatValue } from '../../features/ncrs/components/ncr-status';
+import { NcrStatusPill, formatValue } from '../../features/ncrs/components/ncr-status';
 import { RaiseNcrPanel } from '../../features/ncrs/components/raise-ncr-panel';
 import { DefectCodesSection } from '../../features/ncrs/components/defect-codes-section';
+import { formatDay } from '../../lib/format';
 
 const useStyles = makeStyles({
   touch: { minHeight: '44px' },

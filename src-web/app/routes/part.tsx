@@ -13,6 +13,7 @@ import { PlanStatusPill, samplingSummary } from '../../features/plans/components
 import { TemplateDialog } from '../../features/plans/components/template-dialog';
 import { ActivateDialog } from '../../features/plans/components/activate-dialog';
 import { useCanManageMasterData } from '../../features/auth/hooks/use-can';
+import { formatDay } from '../../lib/format';
 
 const useStyles = makeStyles({
   back: { color: tokens.colorBrandForeground1, textDecoration: 'none', display: 'inline-flex', minHeight: '32px', alignItems: 'center', marginBottom: '4px' },
@@ -158,9 +159,9 @@ export function PartPage() {
                       <TableCell><PlanStatusPill status={x.status} /></TableCell>
                       <TableCell>{x.characteristicCount}</TableCell>
                       <TableCell>{samplingSummary(x)}</TableCell>
-                      <TableCell>{new Date(x.createdAt).toLocaleDateString()}</TableCell>
-                      <TableCell>{x.activatedAt ? new Date(x.activatedAt).toLocaleDateString() : '—'}</TableCell>
-                      <TableCell>{x.supersededAt ? new Date(x.supersededAt).toLocaleDateString() : '—'}</TableCell>
+                      <TableCell>{formatDay(x.createdAt)}</TableCell>
+                      <TableCell>{x.activatedAt ? formatDay(x.activatedAt) : '—'}</TableCell>
+                      <TableCell>{x.supersededAt ? formatDay(x.supersededAt) : '—'}</TableCell>
                       <TableCell>
                         <div className={s.rowActions}>
                           <Button className={s.rowBtn} size="small" appearance="subtle" onClick={() => navigate(paths.plan(x.id))}>{x.status === 'draft' && canWrite ? 'Edit' : 'Open'}</Button>

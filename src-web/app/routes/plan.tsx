@@ -18,6 +18,7 @@ import { PlanChanges } from '../../features/plans/components/plan-changes';
 import { ActivateDialog } from '../../features/plans/components/activate-dialog';
 import { draftFrom, toUpdateInput, validateDraft, type PlanDraft, type RowDraft } from '../../features/plans/components/plan-draft';
 import { useCanManageMasterData } from '../../features/auth/hooks/use-can';
+import { formatDay } from '../../lib/format';
 
 const useStyles = makeStyles({
   back: { color: tokens.colorBrandForeground1, textDecoration: 'none', display: 'inline-flex', minHeight: '32px', alignItems: 'center', marginBottom: '4px' },
@@ -178,9 +179,9 @@ function PlanEditor({ plan, tab, toasterId }: { plan: Plan; tab: 'characteristic
         <div className={s.meta}>
           <PlanStatusPill status={plan.status} />
           <Caption1>{plan.characteristics.length} characteristics</Caption1>
-          <Caption1>Created {new Date(plan.createdAt).toLocaleDateString()}</Caption1>
-          {plan.activatedAt ? <Caption1>Activated {new Date(plan.activatedAt).toLocaleDateString()}</Caption1> : null}
-          {plan.supersededAt ? <Caption1>Superseded {new Date(plan.supersededAt).toLocaleDateString()}</Caption1> : null}
+          <Caption1>Created {formatDay(plan.createdAt)}</Caption1>
+          {plan.activatedAt ? <Caption1>Activated {formatDay(plan.activatedAt)}</Caption1> : null}
+          {plan.supersededAt ? <Caption1>Superseded {formatDay(plan.supersededAt)}</Caption1> : null}
           {dirty ? <Caption1 className={s.dirty} role="status">Unsaved changes</Caption1> : null}
         </div>
 

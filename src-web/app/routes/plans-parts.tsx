@@ -13,6 +13,7 @@ import { usePlans } from '../../features/plans/api/plans';
 import { PartPanel } from '../../features/parts/components/part-panel';
 import { CONSTRUCTION_LABELS } from '../../features/parts/components/construction';
 import { useCanManageMasterData } from '../../features/auth/hooks/use-can';
+import { formatDay } from '../../lib/format';
 
 const useStyles = makeStyles({
   touch: { minHeight: '44px' },
@@ -83,7 +84,7 @@ export function PlansPartsPage() {
                       <StatusPill tone="pending" title="Lots of this part cannot be inspected until a plan is active">No active plan</StatusPill>
                     )}
                   </TableCell>
-                  <TableCell>{new Date(p.updatedAt).toLocaleDateString()}</TableCell>
+                  <TableCell>{formatDay(p.updatedAt)}</TableCell>
                 </TableRow>
               ))}
             </TableBody>

@@ -9,6 +9,7 @@ import { useListParams } from '../../lib/use-list-params';
 import { paths } from '../../config/paths';
 import { useScars } from '../../features/corrective-actions/api/scars';
 import { DueDate, ScarStatusPill } from '../../features/corrective-actions/components/scar-status';
+import { formatDay } from '../../lib/format';
 
 const useStyles = makeStyles({
   number: { fontFamily: tokens.fontFamilyMonospace, fontWeight: 700, color: tokens.colorBrandForeground1, textDecoration: 'none', whiteSpace: 'nowrap', ':hover': { textDecoration: 'underline' } },
@@ -58,7 +59,7 @@ export function ScarsPage() {
                   <TableCell>{x.supplierCode}</TableCell>
                   <TableCell><Link className={s.number} to={paths.ncr(x.ncrId)}>{x.ncrNumber}</Link></TableCell>
                   <TableCell className={s.nowrap}>{x.nextDueStep ? <>{x.nextDueStep} {STEP_INFO[x.nextDueStep].title} · <DueDate dueOn={x.nextDueOn} overdue={x.overdue} /></> : '—'}</TableCell>
-                  <TableCell className={s.muted}>{new Date(x.issuedAt).toLocaleDateString()}</TableCell>
+                  <TableCell className={s.muted}>{formatDay(x.issuedAt)}</TableCell>
                 </TableRow>
               ))}
             </TableBody>

@@ -11,8 +11,9 @@ import { useMe } from '../../features/auth/api/get-me';
 import { useNotices, useOpenSteps, useScars } from '../../features/corrective-actions/api/scars';
 import { DueDate, ScarStatusPill } from '../../features/corrective-actions/components/scar-status';
 import { useNcrs } from '../../features/ncrs/api/ncrs';
-import { NcrStatusPill, formatDay } from '../../features/ncrs/components/ncr-status';
+import { NcrStatusPill } from '../../features/ncrs/components/ncr-status';
 import { useLots } from '../../features/lots/api/lots';
+import { formatDay } from '../../lib/format';
 
 const useStyles = makeStyles({
   number: { fontFamily: tokens.fontFamilyMonospace, fontWeight: 700, color: tokens.colorBrandForeground1, textDecoration: 'none', whiteSpace: 'nowrap', ':hover': { textDecoration: 'underline' } },

@@ -11,6 +11,7 @@ import { useSupplier, useSuppliers } from '../../features/suppliers/api/supplier
 import { APPROVAL_LABELS, ApprovalPill } from '../../features/suppliers/components/approval-pill';
 import { SupplierPanel } from '../../features/suppliers/components/supplier-panel';
 import { useCanManageMasterData } from '../../features/auth/hooks/use-can';
+import { formatDay } from '../../lib/format';
 
 const useStyles = makeStyles({
   touch: { minHeight: '44px' },
@@ -80,7 +81,7 @@ export function SuppliersPage() {
                   </TableCell>
                   <TableCell className={s.nowrap}><ApprovalPill status={x.approvalStatus} reason={x.approvalReason} /></TableCell>
                   <TableCell><span className={s.reason} title={x.approvalReason ?? undefined}>{x.approvalReason ?? '—'}</span></TableCell>
-                  <TableCell className={s.muted}>{new Date(x.updatedAt).toLocaleDateString()}</TableCell>
+                  <TableCell className={s.muted}>{formatDay(x.updatedAt)}</TableCell>
                 </TableRow>
               ))}
             </TableBody>

@@ -2,6 +2,7 @@ import { Caption1, Table, TableBody, TableCell, TableHeader, TableRow, makeStyle
 import type { OutboxMessage } from '@shared/schemas/corrective-action';
 import { HeadCell, TableFrame } from '../../../components/data-table';
 import { StatusPill } from '../../../components/status-pill';
+import { formatClock, formatWhen } from '../../../lib/format';
 
 const useStyles = makeStyles({ muted: { color: tokens.colorNeutralForeground3 }, err: { color: tokens.colorPaletteRedForeground1, maxWidth: '40ch', display: 'block', overflow: 'hidden', textOverflow: 'ellipsis', whiteSpace: 'nowrap' } });
 
@@ -36,7 +37,7 @@ export function MailStatus({ mail }: { mail: OutboxMessage[] }) {
                 {m.lastError && m.status !== 'sent' ? <Caption1 className={s.err} title={m.lastError}>{m.lastError}</Caption1> : null}
               </TableCell>
               <TableCell>{m.attempts}</TableCell>
-              <TableCell className={s.muted}>{new Date(m.sentAt ?? m.createdAt).toLocaleString()}{m.status === 'pending' && m.nextAttemptAt && m.attempts > 0 ? ` · next try ${new Date(m.nextAttemptAt).toLocaleTimeString()}` : ''}</TableCell>
+              <TableCell className={s.muted}>{formatWhen(m.sentAt ?? m.createdAt)}{m.status === 'pending' && m.nextAttemptAt && m.attempts > 0 ? ` · next try ${formatClock(m.nextAttemptAt)}` : ''}</TableCell>
             </TableRow>
           ))}
         </TableBody>

@@ -1,6 +1,7 @@
 import { Caption1, tokens } from '@fluentui/react-components';
 import { SCAR_STATUS_LABELS, SCAR_STATUS_TONE, STEP_STATUS_LABELS, type ScarStatus, type StepStatus } from '@shared/schemas/corrective-action';
 import { StatusPill, type Tone } from '../../../components/status-pill';
+import { formatCalendarDay } from '../../../lib/format';
 
 export function ScarStatusPill({ status }: { status: ScarStatus }) {
   return <StatusPill tone={SCAR_STATUS_TONE[status]}>{SCAR_STATUS_LABELS[status]}</StatusPill>;
@@ -14,15 +15,13 @@ export function StepStatusPill({ status, internal }: { status: StepStatus; inter
   return <StatusPill tone={STEP_TONE[status]}>{label}</StatusPill>;
 }
 
-export const formatDue = (iso: string) => new Date(`${iso}T12:00:00Z`).toLocaleDateString(undefined, { weekday: 'short', day: 'numeric', month: 'short', year: 'numeric' });
-
 /** "Due Mon 5 Jan 2026", red and marked when overdue (words as well as colour). */
 export function DueDate({ dueOn, overdue, done }: { dueOn: string | null; overdue: boolean; done?: boolean }) {
   if (!dueOn) return null;
   return (
     <Caption1 style={{ color: overdue ? tokens.colorPaletteRedForeground1 : done ? tokens.colorNeutralForeground3 : undefined, fontWeight: overdue ? 700 : undefined }}>
       {overdue ? 'Overdue: was due ' : 'Due '}
-      {formatDue(dueOn)}
+      {formatCalendarDay(dueOn, true)}
     </Caption1>
   );
 }

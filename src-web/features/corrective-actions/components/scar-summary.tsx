@@ -1,6 +1,7 @@
 import { Body1, Caption1, ProgressBar, makeStyles, tokens } from '@fluentui/react-components';
 import type { ReactNode } from 'react';
 import type { Scar } from '@shared/schemas/corrective-action';
+import { formatDay } from '../../../lib/format';
 
 const useStyles = makeStyles({
   grid: { display: 'grid', gridTemplateColumns: 'repeat(3, minmax(0, 1fr))', gap: '16px', marginBottom: '20px', '@media (max-width: 1000px)': { gridTemplateColumns: '1fr' } },
@@ -39,9 +40,9 @@ export function ScarSummary({ scar, ncrLink }: { scar: Scar; ncrLink: ReactNode 
           <dt className={s.dt}>Part</dt><dd className={s.dd}>{scar.partNumber ? `${scar.partNumber} rev ${scar.partRevision}` : '—'}</dd>
           <dt className={s.dt}>Nonconformance</dt><dd className={s.dd}>{ncrLink}</dd>
           <dt className={s.dt}>Defect</dt><dd className={s.dd}>{scar.defectCodes.join(', ')}</dd>
-          <dt className={s.dt}>Issued</dt><dd className={s.dd}>{new Date(scar.issuedAt).toLocaleDateString()}</dd>
-          {scar.acknowledgedAt ? (<><dt className={s.dt}>Acknowledged</dt><dd className={s.dd}>{new Date(scar.acknowledgedAt).toLocaleDateString()}</dd></>) : null}
-          {scar.closedAt ? (<><dt className={s.dt}>Closed</dt><dd className={s.dd}>{new Date(scar.closedAt).toLocaleDateString()}</dd></>) : null}
+          <dt className={s.dt}>Issued</dt><dd className={s.dd}>{formatDay(scar.issuedAt)}</dd>
+          {scar.acknowledgedAt ? (<><dt className={s.dt}>Acknowledged</dt><dd className={s.dd}>{formatDay(scar.acknowledgedAt)}</dd></>) : null}
+          {scar.closedAt ? (<><dt className={s.dt}>Closed</dt><dd className={s.dd}>{formatDay(scar.closedAt)}</dd></>) : null}
         </dl>
       </Card>
       <Card title="Effectiveness">

@@ -7,6 +7,7 @@ import { TextAreaField, formSchema } from '../../../components/form-fields';
 import { evidenceUrl, usePutStep, useReviewStep, useUploadEvidence } from '../api/scars';
 import { DueDate, StepStatusPill } from './scar-status';
 import { AnswerView, NoAnswer, StepFields, cleanAnswer, initialAnswer } from './step-fields';
+import { formatWhen } from '../../../lib/format';
 
 const useStyles = makeStyles({
   card: { border: `1px solid ${tokens.colorNeutralStroke2}`, borderRadius: tokens.borderRadiusLarge, padding: '14px 16px', backgroundColor: tokens.colorNeutralBackground1, display: 'flex', flexDirection: 'column', gap: '10px' },
@@ -115,7 +116,7 @@ function StepEditor({ scar, step }: { scar: Scar; step: ScarStep }) {
             <Button className={s.touch} appearance="primary" type="submit" disabled={form.formState.isSubmitting} onClick={() => (intent.current = 'submit')} aria-label={`Submit ${step.step} for review`}>
               {form.formState.isSubmitting && intent.current === 'submit' ? 'Submitting…' : 'Submit for review'}
             </Button>
-            {step.draftSavedAt ? <Caption1 className={s.muted}>Draft saved {new Date(step.draftSavedAt).toLocaleString()}</Caption1> : null}
+            {step.draftSavedAt ? <Caption1 className={s.muted}>Draft saved {formatWhen(step.draftSavedAt)}</Caption1> : null}
             {saved ? <Caption1 role="status">{saved}</Caption1> : null}
           </div>
         </>
@@ -205,7 +206,7 @@ export function StepCard({ scar, step, role }: { scar: Scar; step: ScarStep; rol
       ) : (
         <NoAnswer />
       )}
-      {step.submittedAt ? <Caption1 className={s.muted}>Submitted {new Date(step.submittedAt).toLocaleString()}{step.reviewedAt ? ` · reviewed ${new Date(step.reviewedAt).toLocaleString()}` : ''}</Caption1> : null}
+      {step.submittedAt ? <Caption1 className={s.muted}>Submitted {formatWhen(step.submittedAt)}{step.reviewedAt ? ` · reviewed ${formatWhen(step.reviewedAt)}` : ''}</Caption1> : null}
       <Evidence scar={scar} step={step} canAdd={answerable} />
       {role === 'engineer' && step.status === 'submitted' && scar.status !== 'closed' ? <StepReview scar={scar} step={step} /> : null}
     </section>

@@ -3,6 +3,7 @@ import { type ReactNode } from 'react';
 import { useController, useFieldArray, useFormContext } from 'react-hook-form';
 import type { EightDStep } from '@shared/schemas/corrective-action';
 import { NumberField } from '../../../components/form-fields';
+import { formatCalendarDay } from '../../../lib/format';
 
 const useStyles = makeStyles({
   group: { display: 'flex', flexDirection: 'column', gap: '12px', '& .fui-Input': { minWidth: 0, width: '100%' } },
@@ -155,7 +156,7 @@ export function AnswerView({ step, answer }: { step: EightDStep; answer: Record<
         ['At the supplier', `${str(a.atSupplier?.checked)} checked, ${str(a.atSupplier?.nonconforming)} nonconforming`],
         ['In transit', `${str(a.inTransit?.checked)} checked, ${str(a.inTransit?.nonconforming)} nonconforming`],
         ['Clean mark', str(a.cleanMark)],
-        ['Clean from', str(a.effectiveFrom)],
+        ['Clean from', typeof a.effectiveFrom === 'string' && a.effectiveFrom ? formatCalendarDay(a.effectiveFrom) : '—'],
       ]);
     case 'D4':
       return dl([['Root cause', str(a.rootCause)], ['Escape point', str(a.escapePoint)], ['Method', str(a.method)]]);

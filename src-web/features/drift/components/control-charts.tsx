@@ -9,6 +9,7 @@ import type { ChartResponse } from '@shared/schemas/drift';
 import { chartColours } from '../../../theme/theme';
 import { useThemeMode } from '../../../theme/theme-mode';
 import { buildRows, fmt, thin, type DrawRow } from './chart-data';
+import { formatDay } from '../../../lib/format';
 
 const useStyles = makeStyles({
   wrap: { display: 'flex', flexDirection: 'column', gap: '6px' },
@@ -64,7 +65,7 @@ function PointTip({ active, payload, chart, unit }: TooltipContentProps & { char
         {p.serial !== undefined ? ` · core ${p.serial}` : ''}
         {p.chunk !== undefined ? ` · part ${p.chunk}` : ''}
       </div>
-      <div className={s.tipMuted}>Received {p.receivedAt.slice(0, 10)} · subgroup {p.index + 1}</div>
+      <div className={s.tipMuted}>Received {formatDay(p.receivedAt)} · subgroup {p.index + 1}</div>
       <div>
         {LOCATION_NAME[chart.chart]}: <strong>{chart.chart === 'p' ? `${fmt(p.value * 100, 2)} % (${p.defectives} of ${p.size})` : `${fmt(p.value)}${u}`}</strong>
       </div>

@@ -8,6 +8,7 @@ import { useListParams } from '../../../lib/use-list-params';
 import { paths } from '../../../config/paths';
 import { exportUrls, useAuditEvents } from '../api/ledger';
 import { ExportButton } from './export-button';
+import { formatWhen } from '../../../lib/format';
 
 const useStyles = makeStyles({
   filter: { minWidth: '150px', '& select': { height: '44px' } },
@@ -41,7 +42,7 @@ const toLocalInput = (iso?: string) => {
   return Number.isNaN(d.getTime()) ? '' : new Date(d.getTime() - d.getTimezoneOffset() * 60_000).toISOString().slice(0, 16);
 };
 const fromLocalInput = (v: string) => (v ? new Date(v).toISOString() : undefined);
-const when = (iso: string) => new Date(iso).toLocaleString(undefined, { dateStyle: 'medium', timeStyle: 'medium' });
+const when = (iso: string) => formatWhen(iso, true);
 
 function Details({ e }: { e: AuditEvent }) {
   const s = useStyles();

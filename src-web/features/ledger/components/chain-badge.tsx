@@ -3,6 +3,7 @@ import { useQueryClient } from '@tanstack/react-query';
 import { statusColours } from '../../../theme/theme';
 import { useThemeMode } from '../../../theme/theme-mode';
 import { getChainStatusQueryOptions, useChainStatus } from '../api/ledger';
+import { formatClock } from '../../../lib/format';
 
 const useStyles = makeStyles({
   box: {
@@ -23,7 +24,7 @@ const useStyles = makeStyles({
   neutral: { border: `2px solid ${tokens.colorNeutralStroke1}` },
 });
 
-const time = (iso: string) => new Date(iso).toLocaleTimeString(undefined, { hour: '2-digit', minute: '2-digit', second: '2-digit' });
+const time = (iso: string) => formatClock(iso, true);
 
 /**
  * The hash chain's verification, in plain sight: green with the record count and when it was

@@ -10,6 +10,7 @@ import { useListParams } from '../../../lib/use-list-params';
 import { paths } from '../../../config/paths';
 import { exportUrls, useLedgerLotSearch, usePartChoices, useSupplierChoices } from '../api/ledger';
 import { ExportButton } from './export-button';
+import { formatWhen } from '../../../lib/format';
 
 const useStyles = makeStyles({
   // Selects as tall as the search box, so the labels line up along the toolbar.
@@ -39,7 +40,7 @@ const useStyles = makeStyles({
 });
 
 const FILTERS = ['tab', 'supplierId', 'partId', 'status', 'receivedFrom', 'receivedTo'] as const;
-const when = (iso: string) => new Date(iso).toLocaleString(undefined, { dateStyle: 'medium', timeStyle: 'short' });
+const when = formatWhen;
 const monthAgo = () => new Date(Date.now() - 30 * 86_400_000).toISOString().slice(0, 10);
 const today = () => new Date().toISOString().slice(0, 10);
 

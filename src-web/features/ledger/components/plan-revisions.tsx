@@ -5,6 +5,7 @@ import type { PlanChange } from '@shared/schemas/master-data';
 import { HeadCell, TableFrame } from '../../../components/data-table';
 import { StatusPill, type Tone } from '../../../components/status-pill';
 import { paths } from '../../../config/paths';
+import { formatDay } from '../../../lib/format';
 
 const useStyles = makeStyles({
   list: { display: 'flex', flexDirection: 'column', gap: '14px' },
@@ -21,7 +22,7 @@ const useStyles = makeStyles({
 
 const STATUS_TONE: Record<string, Tone> = { draft: 'pending', active: 'ok', superseded: 'neutral' };
 const CHANGE_TONE: Record<PlanChange['kind'], Tone> = { added: 'ok', removed: 'bad', changed: 'pending' };
-const date = (iso: string | null) => (iso ? new Date(iso).toLocaleDateString(undefined, { dateStyle: 'medium' }) : '—');
+const date = (iso: string | null) => (iso ? formatDay(iso) : '—');
 
 function show(v: unknown): string {
   if (v === null || v === undefined || v === '') return '—';

@@ -5,6 +5,7 @@ import type { StoredSampling } from '@shared/schemas/receiving';
 import { HeadCell } from '../../../components/data-table';
 import { StatusPill, type Tone } from '../../../components/status-pill';
 import { verdigris, copper } from '../../../theme/theme';
+import { formatClock, formatDay } from '../../../lib/format';
 
 const useStyles = makeStyles({
   filters: { display: 'flex', gap: '6px', flexWrap: 'wrap', marginBottom: '12px' },
@@ -97,8 +98,8 @@ const FILTERS: { value: Filter; label: string; kinds?: LedgerKind[] }[] = [
   { value: 'nonconformance', label: 'NCR & corrective action', kinds: ['ncr', 'disposition', 'signature', 'scar', 'scar-step'] },
 ];
 
-const day = (iso: string) => new Date(iso).toLocaleDateString(undefined, { day: 'numeric', month: 'short', year: 'numeric' });
-const clock = (iso: string) => new Date(iso).toLocaleTimeString(undefined, { hour: '2-digit', minute: '2-digit', second: '2-digit' });
+const day = formatDay;
+const clock = (iso: string) => formatClock(iso, true);
 const num = (v: number | null) => (v == null ? '—' : String(Number(v.toFixed(4))));
 
 export function samplingText(s: StoredSampling): string {

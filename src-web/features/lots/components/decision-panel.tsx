@@ -8,7 +8,8 @@ import { StatusPill } from '../../../components/status-pill';
 import { paths } from '../../../config/paths';
 import { ApiError } from '../../../lib/api-client';
 import { getLotQueryOptions, useDecideLot, useProposal } from '../api/lots';
-import { LotStatusPill, formatDateTime, isOpenLot } from './lot-status';
+import { LotStatusPill, isOpenLot } from './lot-status';
+import { formatWhen } from '../../../lib/format';
 
 const useStyles = makeStyles({
   root: { display: 'flex', flexDirection: 'column', gap: '12px', maxWidth: '760px' },
@@ -48,7 +49,7 @@ export function DecisionPanel({ lot, canDecide, unsent }: { lot: Lot; canDecide:
           <LotStatusPill status={lot.status} />
           <Body1>
             {lot.decision === 'accept' ? 'Accepted' : lot.decision === 'reject' ? 'Rejected' : 'Decided'}
-            {lot.decidedAt ? ` on ${formatDateTime(lot.decidedAt)}` : ''}
+            {lot.decidedAt ? ` on ${formatWhen(lot.decidedAt)}` : ''}
             {lot.nonconformingCount != null ? ` · ${lot.nonconformingCount} nonconforming in the sample` : ''}
           </Body1>
         </div>

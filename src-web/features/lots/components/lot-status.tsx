@@ -18,6 +18,3 @@ export function formatAge(fromIso: string, now = Date.now()): string {
   if (h < 48) return `${h} h`;
   return `${Math.floor(h / 24)} d`;
 }
-
-export const formatDateTime = (iso: string) => new Date(iso).toLocaleString(undefined, { dateStyle: 'medium', timeStyle: 'short' });
-export const formatDate = (iso: string) => new Date(iso).toLocaleDateString(undefined, { dateStyle: 'medium' });

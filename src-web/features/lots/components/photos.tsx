@@ -3,7 +3,7 @@ import { useRef, useState } from 'react';
 import type { Photo } from '@shared/schemas/receiving';
 import { photoUrl, thumbnailUrl } from '../api/lots';
 import type { PhotoUpload } from '../api/use-photo-uploads';
-import { formatDateTime } from './lot-status';
+import { formatWhen } from '../../../lib/format';
 
 const useStyles = makeStyles({
   bar: { display: 'flex', gap: '8px', alignItems: 'flex-end', flexWrap: 'wrap', marginBottom: '12px' },
@@ -101,7 +101,7 @@ export function PhotoGrid({ photos, coreOf }: { photos: Photo[]; coreOf: (sample
               <DialogTitle>{label(open)}</DialogTitle>
               <DialogContent>
                 <img className={s.big} src={photoUrl(open.id)} alt={label(open)} />
-                <Caption1 className={s.muted}>{open.width} × {open.height} px · added {formatDateTime(open.createdAt)} · metadata removed on upload</Caption1>
+                <Caption1 className={s.muted}>{open.width} × {open.height} px · added {formatWhen(open.createdAt)} · metadata removed on upload</Caption1>
               </DialogContent>
               <DialogActions>
                 <Button className={s.touch} as="a" href={photoUrl(open.id)} target="_blank" rel="noreferrer">Open full size</Button>

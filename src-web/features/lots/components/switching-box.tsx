@@ -5,7 +5,7 @@ import { StatusPill } from '../../../components/status-pill';
 import { paths } from '../../../config/paths';
 import { useSwitching } from '../api/lots';
 import { SEVERITY_LABELS } from './sampling-box';
-import { formatDateTime } from './lot-status';
+import { formatWhen } from '../../../lib/format';
 
 const useStyles = makeStyles({
   row: { display: 'flex', gap: '8px', flexWrap: 'wrap', alignItems: 'center' },
@@ -50,7 +50,7 @@ export function SwitchingBox({ supplierId, partId, currentLotId }: { supplierId:
           <ul className={s.list} aria-label="Switching history">
             {shown.map((h) => (
               <li key={h.id} className={s.item}>
-                <span className={s.when}>{formatDateTime(h.at)}</span>{' '}
+                <span className={s.when}>{formatWhen(h.at)}</span>{' '}
                 {h.severityBefore !== h.severityAfter ? <strong>{h.severityBefore} → {h.severityAfter}. </strong> : null}
                 {h.reason}
                 {h.lotId && h.lotId !== currentLotId ? <> · <Link className={s.link} to={paths.lot(h.lotId)}>that lot</Link></> : h.lotId === currentLotId ? ' · this lot' : null}

@@ -9,8 +9,6 @@ export function NcrStatusPill({ status }: { status: NcrStatus }) {
 export const formatMoney = (v: number) => v.toLocaleString(undefined, { minimumFractionDigits: 2, maximumFractionDigits: 2 });
 /** A measured value as people read it: at most four decimals, no float noise (77.9497162666 → 77.9497). */
 export const formatValue = (v: number | null | undefined) => (v == null ? '' : String(Number(v.toFixed(4))));
-export const formatDay = (iso: string) => new Date(iso).toLocaleDateString(undefined, { dateStyle: 'medium' });
-export const formatWhen = (iso: string) => new Date(iso).toLocaleString(undefined, { dateStyle: 'medium', timeStyle: 'short' });
 
 /** Audit actions in words for the NCR and SCAR histories. */
 export function actionLabel(action: string): string {

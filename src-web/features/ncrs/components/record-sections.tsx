@@ -1,7 +1,8 @@
 import { Caption1, Field, Select, makeStyles, tokens } from '@fluentui/react-components';
 import type { z } from 'zod';
 import type { historyEntrySchema } from '@shared/schemas/ncr';
-import { actionLabel, formatWhen } from './ncr-status';
+import { actionLabel } from './ncr-status';
+import { formatWhen } from '../../../lib/format';
 
 // Parts shared by the NCR and corrective-action pages: their history list and the state filter
 // of their lists.

@@ -11,6 +11,7 @@ import { SidePanel } from '../../../components/side-panel';
 import { Loading } from '../../../components/data-table';
 import { useCreateSupplier, useUpdateSupplier } from '../api/suppliers';
 import { APPROVAL_LABELS, ApprovalPill } from './approval-pill';
+import { formatWhen } from '../../../lib/format';
 
 const useStyles = makeStyles({
   fields: { display: 'flex', flexDirection: 'column', gap: '14px' },
@@ -95,7 +96,7 @@ export function SupplierPanel({ mode, supplier, loading, error, onClose, onSaved
         <dt className={s.dt}>Approval</dt><dd className={s.dd}><ApprovalPill status={supplier.approvalStatus} /></dd>
         <dt className={s.dt}>Reason</dt><dd className={s.dd}>{supplier.approvalReason ?? '—'}</dd>
         <dt className={s.dt}>Notes</dt><dd className={s.dd}>{supplier.notes ?? '—'}</dd>
-        <dt className={s.dt}>Last changed</dt><dd className={s.dd}>{new Date(supplier.updatedAt).toLocaleString()}</dd>
+        <dt className={s.dt}>Last changed</dt><dd className={s.dd}>{formatWhen(supplier.updatedAt)}</dd>
       </dl>
     );
   } else {
