@@ -249,7 +249,26 @@ export const ncrSchema = ncrSummarySchema.extend({
   signalId: z.string().nullable(),
   lot: z.object({ id: z.string(), ref: z.number(), status: z.string(), quantity: z.number(), supplierLotNumber: z.string(), version: z.number() }).nullable(),
   cores: z.array(z.object({ id: z.string(), serial: z.number() })),
-  readings: z.array(z.object({ id: z.string(), sampleId: z.string(), serial: z.number().nullable(), characteristicCode: z.string(), value: z.number().nullable(), values: z.array(z.number()), pass: z.boolean().nullable(), conforming: z.boolean().nullable(), note: z.string().nullable() })),
+  /** The linked readings, with the plan's limits they were judged against. */
+  readings: z.array(
+    z.object({
+      id: z.string(),
+      sampleId: z.string(),
+      serial: z.number().nullable(),
+      characteristicCode: z.string(),
+      name: z.string(),
+      unit: z.string().nullable(),
+      lsl: z.number().nullable(),
+      usl: z.number().nullable(),
+      /** Every reading is held to the limits (a single-layout characteristic such as burr height); otherwise the readings are radii or heights the value is computed from. */
+      eachReadingJudged: z.boolean(),
+      value: z.number().nullable(),
+      values: z.array(z.number()),
+      pass: z.boolean().nullable(),
+      conforming: z.boolean().nullable(),
+      note: z.string().nullable(),
+    }),
+  ),
   photos: z.array(ncrPhotoSchema),
   dispositions: z.array(dispositionSchema),
   signatures: z.array(eSignatureSchema),

@@ -122,7 +122,14 @@ export class NcrsService {
       n.lotId ? tx.select().from(lot).where(eq(lot.id, n.lotId)).then((x) => x[0]) : Promise.resolve(undefined),
       n.sampleIds.length ? tx.select().from(lotSample).where(inArray(lotSample.id, n.sampleIds)).orderBy(asc(lotSample.serial)) : Promise.resolve([]),
       n.readingIds.length
-        ? tx.select({ r: reading, serial: lotSample.serial }).from(reading).leftJoin(lotSample, eq(lotSample.id, reading.sampleId)).where(inArray(reading.id, n.readingIds)).orderBy(asc(lotSample.serial), asc(reading.characteristicCode))
+        ? tx
+            .select({ r: reading, serial: lotSample.serial, c: { name: planCharacteristic.name, unit: planCharacteristic.unit, lsl: planCharacteristic.lsl, usl: planCharacteristic.usl, layout: planCharacteristic.layout } })
+            .from(reading)
+            .leftJoin(lotSample, eq(lotSample.id, reading.sampleId))
+            .leftJoin(lot, eq(lot.id, reading.lotId))
+            .leftJoin(planCharacteristic, and(eq(planCharacteristic.planId, lot.planId), eq(planCharacteristic.code, reading.characteristicCode)))
+            .where(inArray(reading.id, n.readingIds))
+            .orderBy(asc(lotSample.serial), asc(reading.characteristicCode))
         : Promise.resolve([]),
       tx.select().from(ncrPhoto).where(eq(ncrPhoto.ncrId, id)).orderBy(asc(ncrPhoto.createdAt)),
       tx.select().from(disposition).where(eq(disposition.ncrId, id)).orderBy(asc(disposition.seq)),
@@ -138,7 +145,7 @@ export class NcrsService {
       signalId: n.signalId,
       lot: lotRow ? { id: lotRow.id, ref: lotRow.ref, status: lotRow.status, quantity: lotRow.quantity, supplierLotNumber: lotRow.supplierLotNumber, version: lotRow.version } : null,
       cores: cores.map((c) => ({ id: c.id, serial: c.serial })),
-      readings: readings.map(({ r: x, serial }) => ({ id: x.id, sampleId: x.sampleId, serial, characteristicCode: x.characteristicCode, value: x.value, values: x.values, pass: x.pass, conforming: x.conforming, note: x.note })),
+      readings: readings.map(({ r: x, serial, c }) => ({ id: x.id, sampleId: x.sampleId, serial, characteristicCode: x.characteristicCode, name: c?.name ?? x.characteristicCode, unit: c?.unit ?? null, lsl: c?.lsl ?? null, usl: c?.usl ?? null, eachReadingJudged: c?.layout === 'single', value: x.value, values: x.values, pass: x.pass, conforming: x.conforming, note: x.note })),
       photos: photos.map(toNcrPhoto),
       dispositions,
       signatures: sigs.map(toSignature),
@@ -448,7 +455,7 @@ export class NcrsService {
         entityId: id,
         before: { status: row.status },
         after: { status: 'dispositioned', lines: lines.map((l) => ({ kind: l.kind, quantity: l.quantity, concessionRef: l.concessionRef, cost: l.cost })), totalCost: split.totalCost, signature: hash, countersignedBy: second?.email ?? null },
-        reason: lines.map((l) => `${l.quantity} × ${l.kind}: ${l.rationale}`).join('; ').slice(0, 2000),
+        reason: lines.map((l) => `${l.quantity} × ${l.kind}: ${l.rationale.replace(/[.;\s]+$/, '')}`).join('; ').slice(0, 2000),
       });
       if (row.lotId) {
         const [l] = await tx.select().from(lot).where(eq(lot.id, row.lotId)).for('update');

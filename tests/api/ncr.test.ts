@@ -40,6 +40,8 @@ describe('raising an NCR from a rejected lot', () => {
     expect(n).toMatchObject({ status: 'open', source: 'lot', lotId: l.id, supplierId: l.supplierId, partId: l.partId, suspectQuantity: 100, defectCodes: ['BORE'] });
     expect(n.readings).toHaveLength(1);
     expect(n.readings[0]).toMatchObject({ characteristicCode: 'BORE', value: 150.21, conforming: false, serial: 1 });
+    // With the plan's limits it was judged against, so the review board sees why it failed.
+    expect(n.readings[0]).toMatchObject({ name: 'Bore diameter', unit: 'mm', lsl: 149.95, usl: 150.05, eachReadingJudged: true });
     expect(n.cores.map((c: { serial: number }) => c.serial)).toEqual([1]);
     const [row] = await t.db.select().from(lot).where(eq(lot.id, l.id));
     expect(row.status).toBe('on-hold');

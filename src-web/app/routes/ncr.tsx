@@ -12,6 +12,8 @@ import { ApiError } from '../../lib/api-client';
 import { useMe } from '../../features/auth/api/get-me';
 import { useNcr, useNcrTransition } from '../../features/ncrs/api/ncrs';
 import { NcrStatusPill, formatMoney, formatValue } from '../../features/ncrs/components/ncr-status';
+import { limitsText } from '../../features/lots/components/sheet-model';
+import { withinLimits } from '@shared/compute/evaluate';
 import { HistoryList } from '../../features/ncrs/components/record-sections';
 import { Section } from '../../components/section';
 import { NcrPhotos } from '../../features/ncrs/components/ncr-photos';
@@ -113,6 +115,24 @@ function Dispositions({ n }: { n: Ncr }) {
   );
 }
 
+/** The readings of one core, those beyond the limits marked in words as well as colour. */
+function ReadingValues({ r }: { r: Ncr['readings'][number] }) {
+  const s = useStyles();
+  return (
+    <span>
+      {r.values.map((v, i) => {
+        const out = r.eachReadingJudged && !withinLimits(v, r.lsl, r.usl);
+        return (
+          <span key={i}>
+            {i ? ', ' : ''}
+            {out ? <span className={s.bad} title="beyond the limit">{formatValue(v)} (out)</span> : <span className={s.muted}>{formatValue(v)}</span>}
+          </span>
+        );
+      })}
+    </span>
+  );
+}
+
 export function NcrPage() {
   const s = useStyles();
   const { id = '' } = useParams();
@@ -149,7 +169,7 @@ export function NcrPage() {
         <div className={s.head}>
           <NcrStatusPill status={n.status} />
           {internalReader ? <Button className={s.touch} onClick={() => navigate(paths.ncrHoldTag(n.id))}>Print hold tag</Button> : null}
-          {exporter ? <a className={s.link} href={`/api/exports/ncrs/${n.id}/report.pdf`} download>Download NCR report (PDF)</a> : null}
+          {exporter ? <Button as="a" className={s.touch} href={`/api/exports/ncrs/${n.id}/report.pdf`} download>NCR report (PDF)</Button> : null}
           {engineer && n.status === 'open' ? (
             <Button className={s.touch} appearance="primary" disabled={move.isPending} onClick={() => move.mutate({ id: n.id, to: 'in-review', version: n.version })}>Start review</Button>
           ) : null}
@@ -182,15 +202,23 @@ export function NcrPage() {
             <TableFrame>
               <Table aria-label="Linked readings" size="small">
                 <TableHeader>
-                  <TableRow><HeadCell>Core</HeadCell><HeadCell>Characteristic</HeadCell><HeadCell>Value</HeadCell><HeadCell>Readings</HeadCell><HeadCell>Result</HeadCell></TableRow>
+                  <TableRow><HeadCell>Core</HeadCell><HeadCell>Characteristic</HeadCell><HeadCell>Limits</HeadCell><HeadCell>Value</HeadCell><HeadCell>Readings</HeadCell><HeadCell>Result</HeadCell></TableRow>
                 </TableHeader>
                 <TableBody>
                   {n.readings.map((r) => (
                     <TableRow key={r.id}>
                       <TableCell>{r.serial ?? '—'}</TableCell>
-                      <TableCell>{r.characteristicCode}</TableCell>
-                      <TableCell className={s.num}>{r.value != null ? formatValue(r.value) : r.pass == null ? '—' : r.pass ? 'pass' : 'fail'}</TableCell>
-                      <TableCell className={s.muted}>{r.values.length > 1 ? r.values.map(formatValue).join(', ') : r.note || ''}</TableCell>
+                      <TableCell>
+                        <strong>{r.characteristicCode}</strong> <span className={s.muted}>{r.name !== r.characteristicCode ? r.name : ''}</span>
+                      </TableCell>
+                      <TableCell className={s.muted}>{limitsText(r) || '—'}</TableCell>
+                      <TableCell className={s.num}>
+                        {r.value != null ? formatValue(r.value) : r.pass == null ? '—' : r.pass ? 'pass' : 'fail'}
+                        {r.value != null && r.values.length > 1 ? <Caption1 className={s.muted} block>mean of {r.values.length}</Caption1> : null}
+                      </TableCell>
+                      <TableCell>
+                        {r.values.length > 1 ? <ReadingValues r={r} /> : <span className={s.muted}>{r.note || ''}</span>}
+                      </TableCell>
                       <TableCell>{r.conforming === false ? <span className={s.bad}>Out of tolerance</span> : r.conforming ? 'Within tolerance' : '—'}</TableCell>
                     </TableRow>
                   ))}

@@ -81,7 +81,7 @@ export function ScarPage() {
     <Page
       title={c.number}
       lead={c.title}
-      actions={<div className={s.head}><ScarStatusPill status={c.status} />{exporter ? <a className={s.link} href={`/api/exports/corrective-actions/${c.id}/report.pdf`} download>Download 8D report (PDF)</a> : null}{engineer ? <Moves scar={c} /> : null}</div>}
+      actions={<div className={s.head}><ScarStatusPill status={c.status} />{exporter ? <Button as="a" className={s.touch} href={`/api/exports/corrective-actions/${c.id}/report.pdf`} download>8D report (PDF)</Button> : null}{engineer ? <Moves scar={c} /> : null}</div>}
     >
       {c.verification.recurrence ? (
         <MessageBar className={s.banner} intent="error"><MessageBarBody>The defect returned{c.verification.recurrence.ncrNumber ? ` in ${c.verification.recurrence.ncrNumber}` : ''}: reopen the request so the supplier looks at the cause again.</MessageBarBody></MessageBar>

@@ -145,7 +145,7 @@ export function asEntered(v: number, c: Pick<SheetChar, 'lsl' | 'usl' | 'nominal
 export const formatValue = (v: number | null | undefined, c: Pick<SheetChar, 'lsl' | 'usl' | 'nominal'>) => (v == null || !Number.isFinite(v) ? '' : v.toFixed(decimalsFor(c)));
 
 /** "149.95 – 150.05 mm", "≤ 25 µm", "≥ 0.95" */
-export function limitsText(c: Pick<SheetChar, 'lsl' | 'usl' | 'unit'>): string {
+export function limitsText(c: { lsl: number | null; usl: number | null; unit: string | null }): string {
   const u = c.unit && c.unit !== 'count' ? ` ${c.unit}` : '';
   if (c.lsl != null && c.usl != null) return `${c.lsl} – ${c.usl}${u}`;
   if (c.usl != null) return `≤ ${c.usl}${u}`;
