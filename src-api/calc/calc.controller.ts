@@ -5,7 +5,7 @@ import { INTERNAL_READ, Roles } from '../common/roles.decorator';
 import { ZodPipe } from '../common/zod.pipe';
 import { ApiBody, ApiResult } from '../common/openapi';
 import { circleFit, eccentricity } from '../../shared/compute/geometry';
-import { insulationFromCurrents, stackingFactorByMass } from '../../shared/compute/steel';
+import { insulationFromCurrents, stackingFactorByCount, stackingFactorByMass } from '../../shared/compute/steel';
 import { ComputeError } from '../../shared/compute/errors';
 import {
   circleFitInputSchema,
@@ -14,6 +14,7 @@ import {
   eccentricityResultSchema,
   insulationInputSchema,
   insulationResultSchema,
+  stackingFactorByCountInputSchema,
   stackingFactorInputSchema,
   stackingFactorResultSchema,
 } from '../../shared/schemas/calc';
@@ -61,6 +62,16 @@ export class CalcController {
   @ApiResult(stackingFactorResultSchema)
   sf(@Body(new ZodPipe(stackingFactorInputSchema)) b: z.infer<typeof stackingFactorInputSchema>) {
     return { stackingFactor: run(() => stackingFactorByMass(b)) };
+  }
+
+  @Post('stacking-factor/by-count')
+  @HttpCode(200)
+  @Roles(...INTERNAL_READ)
+  @ApiOperation({ summary: 'Stacking factor from a lamination count = count × nominal thickness / stack length' })
+  @ApiBody(stackingFactorByCountInputSchema)
+  @ApiResult(stackingFactorResultSchema)
+  sfByCount(@Body(new ZodPipe(stackingFactorByCountInputSchema)) b: z.infer<typeof stackingFactorByCountInputSchema>) {
+    return { stackingFactor: run(() => stackingFactorByCount(b)) };
   }
 
   @Post('insulation')

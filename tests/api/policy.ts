@@ -70,6 +70,7 @@ export const POLICY: Record<string, Rule> = {
   'POST /api/calc/circle-fit': { allow: INTERNAL, pure: true },
   'POST /api/calc/eccentricity': { allow: INTERNAL, pure: true },
   'POST /api/calc/stacking-factor': { allow: INTERNAL, pure: true },
+  'POST /api/calc/stacking-factor/by-count': { allow: INTERNAL, pure: true },
   'POST /api/calc/insulation': { allow: INTERNAL, pure: true },
 
   'POST /api/lots': { allow: RECEIVERS },

@@ -332,6 +332,13 @@ describe('calculators', () => {
     expect(e.body.coaxiality).toBeCloseTo(0.06, 9); // ISO 1101: coaxiality zone = 2 × offset
     const sf = await insp.post('/api/calc/stacking-factor', { massG: 5900, densityGcm3: 7.65, areaCm2: 80, stackLengthMm: 100 });
     expect(sf.body.stackingFactor).toBeCloseTo(0.964, 3); // ASTM A719 / IEC 60404-13 worked core check in REFERENCES
+    // Common practice: S = n · t / L; 233 laminations of 0.50 mm in a 120 mm stack = 116.5 / 120.
+    const byCount = await insp.post('/api/calc/stacking-factor/by-count', { laminationCount: 233, thicknessMm: 0.5, stackLengthMm: 120 });
+    expect(byCount.status).toBe(200);
+    expect(byCount.body.stackingFactor).toBeCloseTo(116.5 / 120, 12);
+    const halfLamination = await insp.post('/api/calc/stacking-factor/by-count', { laminationCount: 232.5, thicknessMm: 0.5, stackLengthMm: 120 });
+    expect(halfLamination.status).toBe(400);
+    expect(halfLamination.body.fields).toMatchObject({ laminationCount: 'laminationCount must be a whole number' });
     const ins = await insp.post('/api/calc/insulation', { currentsA: [0.1, 0.1] });
     expect(ins.body.resistanceOhmCm2).toBeCloseTo(58.05, 2); // ASTM A717: 6.45 (1/0.10 − 1)
     const bad = await insp.post('/api/calc/circle-fit', { points: [[0, 0], [1, 1]] });

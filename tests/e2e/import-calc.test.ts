@@ -201,6 +201,8 @@ describe('calculators', () => {
     await byCount.getByRole('textbox', { name: /^Stack length/ }).fill('100');
     await byCount.getByRole('region', { name: 'Stacking factor by count result' }).getByText('0.966 (96.6 %)').waitFor(); // S = n·t/L (common practice): 276 × 0.35 mm / 100 mm = 0.966
     await byCount.getByText(/Typical minimum for 0.35 mm strip: 0.95/).waitFor(); // IEC 60404-8-4 (memory, REFERENCES): 0.95 at 0.35 mm
+    await byCount.getByRole('button', { name: 'Check on server' }).click();
+    await byCount.getByRole('status', { name: 'Stacking factor by count: server check' }).getByText('Server agrees').waitFor();
 
     // ── Insulation: Franklin current 0.10 A, with the energized-test caution beside it.
     const ins = page.getByRole('region', { name: 'Surface insulation resistance', exact: true });

@@ -7,6 +7,7 @@ import type {
   eccentricityResultSchema,
   insulationInputSchema,
   insulationResultSchema,
+  stackingFactorByCountInputSchema,
   stackingFactorInputSchema,
   stackingFactorResultSchema,
 } from '@shared/schemas/calc';
@@ -18,6 +19,7 @@ export type EccentricityInput = z.infer<typeof eccentricityInputSchema>;
 export type EccentricityResult = z.infer<typeof eccentricityResultSchema>;
 export type StackingFactorInput = z.infer<typeof stackingFactorInputSchema>;
 export type StackingFactorResult = z.infer<typeof stackingFactorResultSchema>;
+export type StackingFactorByCountInput = z.infer<typeof stackingFactorByCountInputSchema>;
 export type InsulationInput = z.infer<typeof insulationInputSchema>;
 export type InsulationResult = z.infer<typeof insulationResultSchema>;
 
@@ -25,9 +27,11 @@ export type InsulationResult = z.infer<typeof insulationResultSchema>;
 export const checkCircleFit = (input: CircleFitInput) => api<CircleFitResult>('/calc/circle-fit', { method: 'POST', body: input });
 export const checkEccentricity = (input: EccentricityInput) => api<EccentricityResult>('/calc/eccentricity', { method: 'POST', body: input });
 export const checkStackingFactor = (input: StackingFactorInput) => api<StackingFactorResult>('/calc/stacking-factor', { method: 'POST', body: input });
+export const checkStackingFactorByCount = (input: StackingFactorByCountInput) => api<StackingFactorResult>('/calc/stacking-factor/by-count', { method: 'POST', body: input });
 export const checkInsulation = (input: InsulationInput) => api<InsulationResult>('/calc/insulation', { method: 'POST', body: input });
 
 export const useCheckCircleFit = () => useMutation({ mutationFn: checkCircleFit });
 export const useCheckEccentricity = () => useMutation({ mutationFn: checkEccentricity });
 export const useCheckStackingFactor = () => useMutation({ mutationFn: checkStackingFactor });
+export const useCheckStackingFactorByCount = () => useMutation({ mutationFn: checkStackingFactorByCount });
 export const useCheckInsulation = () => useMutation({ mutationFn: checkInsulation });

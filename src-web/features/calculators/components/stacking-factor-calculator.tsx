@@ -1,26 +1,15 @@
 import { Caption1 } from '@fluentui/react-components';
 import { useState } from 'react';
 import { useWatch, type UseFormReturn } from 'react-hook-form';
-import { z } from 'zod';
 import { stackingFactorByCount, stackingFactorByMass, typicalMinimumStackingFactor } from '@shared/compute/steel';
 import { ComputeError } from '@shared/compute/errors';
-import { stackingFactorInputSchema } from '@shared/schemas/calc';
+import { stackingFactorByCountInputSchema, stackingFactorInputSchema } from '@shared/schemas/calc';
 import { Form } from '../../../components/form';
 import { NumberField, formSchema } from '../../../components/form-fields';
-import { useCheckStackingFactor, type StackingFactorInput, type StackingFactorResult } from '../api/calc';
+import { useCheckStackingFactor, useCheckStackingFactorByCount, type StackingFactorByCountInput, type StackingFactorInput, type StackingFactorResult } from '../api/calc';
 import { CalcCard, Formula, LiveResult, ServerCheck, fmt, useCalcStyles, type Compared, type ServerCheckState } from './calc-parts';
 
 const sfText = (v: number | null) => (v == null ? '—' : `${fmt(v, 3)} (${fmt(v * 100, 1)} %)`);
-
-/**
- * By lamination count there is no API route (the server checks cores by mass), so this form is
- * the shared stack-length rule plus the two count inputs, in the shared schema's style.
- */
-export const stackingFactorByCountSchema = stackingFactorInputSchema.pick({ stackLengthMm: true }).extend({
-  laminationCount: z.number({ message: 'laminationCount must be a number' }).int('laminationCount must be a whole number').min(1, 'laminationCount must be at least 1'),
-  thicknessMm: z.number({ message: 'thicknessMm must be a number' }).finite('thicknessMm must be finite').positive('thicknessMm must be greater than zero'),
-});
-type ByCountInput = z.infer<typeof stackingFactorByCountSchema>;
 
 function compute<T>(fn: () => T): { value: T | null; error: string | null } {
   try {
@@ -67,11 +56,13 @@ function ByMassBody({ form, server }: { form: UseFormReturn<StackingFactorInput>
   );
 }
 
-function ByCountBody({ form }: { form: UseFormReturn<ByCountInput> }) {
+function ByCountBody({ form, server }: { form: UseFormReturn<StackingFactorByCountInput>; server: ServerCheckState<StackingFactorResult> | null }) {
   const s = useCalcStyles();
   const values = useWatch({ control: form.control });
-  const parsed = stackingFactorByCountSchema.safeParse(values);
+  const parsed = stackingFactorByCountInputSchema.safeParse(values);
+  const key = parsed.success ? JSON.stringify(parsed.data) : null;
   const { value: sf, error } = parsed.success ? compute(() => stackingFactorByCount(parsed.data)) : { value: null, error: null };
+  const compared: Compared[] | null = sf != null && server && server.key === key ? [{ label: 'Stacking factor', local: sf, server: server.result.stackingFactor, text: sfText }] : null;
   const typical = parsed.success ? compute(() => typicalMinimumStackingFactor(parsed.data.thicknessMm)).value : null;
   return (
     <div className={s.form}>
@@ -88,20 +79,23 @@ function ByCountBody({ form }: { form: UseFormReturn<ByCountInput> }) {
         note={
           sf != null ? (
             <Caption1 className={s.muted}>
-              {typical ? `Typical minimum for ${parsed.data?.thicknessMm} mm strip: ${typical.minimum}, per ${typical.source}; the plan's limit governs.` : 'No typical minimum on record for this thickness; the plan’s limit comes from the drawing.'} Computed in the browser only: the API checks cores by mass.
+              {typical ? `Typical minimum for ${parsed.data?.thicknessMm} mm strip: ${typical.minimum}, per ${typical.source}; the plan's limit governs.` : 'No typical minimum on record for this thickness; the plan’s limit comes from the drawing.'}
             </Caption1>
           ) : null
         }
       />
+      <ServerCheck label="Stacking factor by count" checked={!!server} currentKey={key} compared={compared} submitting={form.formState.isSubmitting} />
     </div>
   );
 }
 
-/** Stacking factor by mass (with the server check) and by lamination count. */
+/** Stacking factor by mass and by lamination count, each with its server check. */
 export function StackingFactorCalculator() {
   const s = useCalcStyles();
   const check = useCheckStackingFactor();
   const [server, setServer] = useState<ServerCheckState<StackingFactorResult> | null>(null);
+  const checkByCount = useCheckStackingFactorByCount();
+  const [serverByCount, setServerByCount] = useState<ServerCheckState<StackingFactorResult> | null>(null);
   return (
     <CalcCard title="Stacking factor" formula={<>S = m / (ρ · A · L), with L in cm</>} source="ASTM A719 / IEC 60404-13 (the pack test's S = m / (ρ·l·w·h), in core form)">
       <h3 className={s.sub}>By mass</h3>
@@ -114,8 +108,12 @@ export function StackingFactorCalculator() {
       </Form>
       <h3 className={s.sub}>By lamination count</h3>
       <Formula label="Stacking factor by count: formula" formula={<>S = n · t / L</>} source="common practice; uses the nominal thickness, so a coil running thick or thin shifts it (the mass method does not)" />
-      <Form<ByCountInput> schema={formSchema<ByCountInput>(stackingFactorByCountSchema)} aria-label="Stacking factor by count" onSubmit={() => undefined}>
-        {(form) => <ByCountBody form={form} />}
+      <Form<StackingFactorByCountInput>
+        schema={formSchema<StackingFactorByCountInput>(stackingFactorByCountInputSchema)}
+        aria-label="Stacking factor by count"
+        onSubmit={async (v) => setServerByCount({ key: JSON.stringify(v), result: await checkByCount.mutateAsync(v) })}
+      >
+        {(form) => <ByCountBody form={form} server={serverByCount} />}
       </Form>
     </CalcCard>
   );
