@@ -27,6 +27,26 @@ export async function repeat(runs: number, fn: (i: number) => Promise<unknown> |
   return out;
 }
 
+/**
+ * Times two pieces of work in alternation (A B, then B A, …) after a warm-up of each, so that a
+ * shared machine's drifting load falls on both alike; returns the times of each in ms.
+ */
+export async function alternate(runs: number, a: () => Promise<unknown> | unknown, b: () => Promise<unknown> | unknown): Promise<{ a: number[]; b: number[] }> {
+  await a();
+  await b();
+  const out = { a: [] as number[], b: [] as number[] };
+  for (let i = 0; i < runs; i++) {
+    if (i % 2 === 0) {
+      out.a.push((await timed(a)).ms);
+      out.b.push((await timed(b)).ms);
+    } else {
+      out.b.push((await timed(b)).ms);
+      out.a.push((await timed(a)).ms);
+    }
+  }
+  return out;
+}
+
 export interface BenchResult {
   name: string;
   floor: string;
