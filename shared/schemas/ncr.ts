@@ -242,6 +242,26 @@ export type ESignature = z.infer<typeof eSignatureSchema>;
 
 export const historyEntrySchema = z.object({ at: z.string(), action: z.string(), actorEmail: z.string().nullable(), reason: z.string().nullable(), detail: z.string().nullable() });
 
+/** A reading linked to an NCR, with the plan's limits it was judged against. */
+export const linkedReadingSchema = z.object({
+  id: z.string(),
+  sampleId: z.string(),
+  serial: z.number().nullable(),
+  characteristicCode: z.string(),
+  name: z.string(),
+  unit: z.string().nullable(),
+  lsl: z.number().nullable(),
+  usl: z.number().nullable(),
+  /** Every reading is held to the limits (a single-layout characteristic such as burr height); otherwise the readings are radii or heights the value is computed from. */
+  eachReadingJudged: z.boolean(),
+  value: z.number().nullable(),
+  values: z.array(z.number()),
+  pass: z.boolean().nullable(),
+  conforming: z.boolean().nullable(),
+  note: z.string().nullable(),
+});
+export type LinkedReading = z.infer<typeof linkedReadingSchema>;
+
 export const ncrSchema = ncrSummarySchema.extend({
   requirement: z.string(),
   found: z.string(),
@@ -250,25 +270,7 @@ export const ncrSchema = ncrSummarySchema.extend({
   lot: z.object({ id: z.string(), ref: z.number(), status: z.string(), quantity: z.number(), supplierLotNumber: z.string(), version: z.number() }).nullable(),
   cores: z.array(z.object({ id: z.string(), serial: z.number() })),
   /** The linked readings, with the plan's limits they were judged against. */
-  readings: z.array(
-    z.object({
-      id: z.string(),
-      sampleId: z.string(),
-      serial: z.number().nullable(),
-      characteristicCode: z.string(),
-      name: z.string(),
-      unit: z.string().nullable(),
-      lsl: z.number().nullable(),
-      usl: z.number().nullable(),
-      /** Every reading is held to the limits (a single-layout characteristic such as burr height); otherwise the readings are radii or heights the value is computed from. */
-      eachReadingJudged: z.boolean(),
-      value: z.number().nullable(),
-      values: z.array(z.number()),
-      pass: z.boolean().nullable(),
-      conforming: z.boolean().nullable(),
-      note: z.string().nullable(),
-    }),
-  ),
+  readings: z.array(linkedReadingSchema),
   photos: z.array(ncrPhotoSchema),
   dispositions: z.array(dispositionSchema),
   signatures: z.array(eSignatureSchema),
@@ -296,6 +298,8 @@ export const ncrSupplierSchema = z.object({
   suspectQuantity: z.number().int(),
   raisedAt: z.string(),
   dispositions: z.array(z.object({ kind: z.enum(DISPOSITION_KINDS), quantity: z.number().int() })),
+  /** What was measured on the linked cores: the values and limits, without the inspectors' notes. */
+  measured: z.array(linkedReadingSchema.omit({ id: true, sampleId: true, note: true })),
   photos: z.array(ncrPhotoSchema),
   scarId: z.string().nullable(),
   scarNumber: z.string().nullable(),

@@ -1,5 +1,5 @@
 import type { disposition, eSignature, ncr, ncrPhoto } from '../db/schema';
-import type { Disposition, ESignature, NcrForSupplier, NcrPhoto, NcrSummary } from '../../shared/schemas/ncr';
+import type { Disposition, ESignature, LinkedReading, NcrForSupplier, NcrPhoto, NcrSummary } from '../../shared/schemas/ncr';
 
 type NcrRow = typeof ncr.$inferSelect;
 
@@ -62,7 +62,7 @@ export function toSignature(r: typeof eSignature.$inferSelect): ESignature {
 }
 
 /** The supplier's view of its own NCR: facts and outcome; no people, costs, signatures or notes. */
-export function toSupplierNcr(s: NcrSummary, r: NcrRow, dispositions: Disposition[], photos: NcrPhoto[]): NcrForSupplier {
+export function toSupplierNcr(s: NcrSummary, r: NcrRow, dispositions: Disposition[], photos: NcrPhoto[], readings: LinkedReading[]): NcrForSupplier {
   return {
     id: s.id,
     number: s.number,
@@ -79,6 +79,7 @@ export function toSupplierNcr(s: NcrSummary, r: NcrRow, dispositions: Dispositio
     suspectQuantity: s.suspectQuantity,
     raisedAt: s.raisedAt,
     dispositions: dispositions.map((d) => ({ kind: d.kind, quantity: d.quantity })),
+    measured: readings.map(({ id: _id, sampleId: _sampleId, note: _note, ...measured }) => measured),
     photos,
     scarId: s.scarId,
     scarNumber: s.scarNumber,

@@ -109,7 +109,7 @@ export class NcrsService {
     const full = await this.getFull(id, this.db, this.scope(user));
     if (user.role !== 'supplier') return full;
     const [row] = await this.db.select().from(ncr).where(eq(ncr.id, id));
-    return toSupplierNcr(full, row, full.dispositions, full.photos);
+    return toSupplierNcr(full, row, full.dispositions, full.photos, full.readings);
   }
 
   /** The whole record for internal roles. */

@@ -398,6 +398,9 @@ describe('supplier isolation', () => {
     expect(own.body).toMatchObject({ number: nMine.number, dispositions: [{ kind: 'scrap', quantity: 100 }] });
     for (const hidden of ['signatures', 'history', 'totalCost', 'raisedByName', 'readings']) expect(own.body).not.toHaveProperty(hidden);
     expect(own.body.dispositions[0]).not.toHaveProperty('cost');
+    // What was measured, so the supplier can work on the cause: values and limits, no notes or ids.
+    expect(own.body.measured).toEqual([expect.objectContaining({ serial: 1, characteristicCode: 'BORE', value: 150.21, values: [150.21], lsl: 149.95, usl: 150.05, conforming: false })]);
+    for (const hidden of ['note', 'id', 'sampleId']) expect(own.body.measured[0]).not.toHaveProperty(hidden);
     const other = await sup.get(`/api/ncrs/${nTheirs.id}`);
     expect(other.status).toBe(404);
     expect(JSON.stringify(other.body)).not.toContain('Selby');

@@ -8,6 +8,7 @@ import { paths } from '../../config/paths';
 import { useSupplierNcr } from '../../features/ncrs/api/ncrs';
 import { NcrStatusPill } from '../../features/ncrs/components/ncr-status';
 import { NcrPhotos } from '../../features/ncrs/components/ncr-photos';
+import { LinkedReadingsTable } from '../../features/ncrs/components/linked-readings';
 import { formatDay } from '../../lib/format';
 
 const useStyles = makeStyles({
@@ -18,6 +19,7 @@ const useStyles = makeStyles({
   h2: { display: 'block', margin: '0 0 10px' },
   link: { color: tokens.colorBrandForeground1, fontWeight: 600 },
   muted: { color: tokens.colorNeutralForeground3 },
+  back: { marginTop: '24px' },
 });
 
 /** A supplier's view of its own nonconformance: what was required, what was found, what became of the cores. */
@@ -44,9 +46,17 @@ export function DeskNcrPage() {
           {n.scarId ? (<><dt className={s.dt}>Corrective action</dt><dd className={s.dd}><Link className={s.link} to={paths.deskScar(n.scarId)}>{n.scarNumber}</Link></dd></>) : null}
         </dl>
       </div>
+      {n.measured.length ? (
+        <>
+          <Subtitle1 as="h2" className={s.h2}>What we measured</Subtitle1>
+          <div className={s.card}>
+            <LinkedReadingsTable readings={n.measured} label="What we measured" />
+          </div>
+        </>
+      ) : null}
       <Subtitle1 as="h2" className={s.h2}>Photos</Subtitle1>
-      {n.photos.length ? <NcrPhotos ncrId={n.id} photos={n.photos} canAdd={false} /> : <Body1 className={s.muted}>No photos.</Body1>}
-      <Caption1 as="p" className={s.muted}><Link className={s.link} to={paths.supplierDesk}>Back to the Supplier desk</Link></Caption1>
+      {n.photos.length ? <NcrPhotos ncrId={n.id} photos={n.photos} canAdd={false} /> : <Body1 as="p" block className={s.muted}>No photos.</Body1>}
+      <Caption1 as="p" block className={s.back}><Link className={s.link} to={paths.supplierDesk}>Back to the Supplier desk</Link></Caption1>
     </Page>
   );
 }

@@ -11,9 +11,8 @@ import { paths } from '../../config/paths';
 import { ApiError } from '../../lib/api-client';
 import { useMe } from '../../features/auth/api/get-me';
 import { useNcr, useNcrTransition } from '../../features/ncrs/api/ncrs';
-import { NcrStatusPill, formatMoney, formatValue } from '../../features/ncrs/components/ncr-status';
-import { limitsText } from '../../features/lots/components/sheet-model';
-import { withinLimits } from '@shared/compute/evaluate';
+import { NcrStatusPill, formatMoney } from '../../features/ncrs/components/ncr-status';
+import { LinkedReadingsTable } from '../../features/ncrs/components/linked-readings';
 import { HistoryList } from '../../features/ncrs/components/record-sections';
 import { Section } from '../../components/section';
 import { NcrPhotos } from '../../features/ncrs/components/ncr-photos';
@@ -115,24 +114,6 @@ function Dispositions({ n }: { n: Ncr }) {
   );
 }
 
-/** The readings of one core, those beyond the limits marked in words as well as colour. */
-function ReadingValues({ r }: { r: Ncr['readings'][number] }) {
-  const s = useStyles();
-  return (
-    <span>
-      {r.values.map((v, i) => {
-        const out = r.eachReadingJudged && !withinLimits(v, r.lsl, r.usl);
-        return (
-          <span key={i}>
-            {i ? ', ' : ''}
-            {out ? <span className={s.bad} title="beyond the limit">{formatValue(v)} (out)</span> : <span className={s.muted}>{formatValue(v)}</span>}
-          </span>
-        );
-      })}
-    </span>
-  );
-}
-
 export function NcrPage() {
   const s = useStyles();
   const { id = '' } = useParams();
@@ -199,32 +180,7 @@ export function NcrPage() {
       {n.readings.length || n.cores.length ? (
         <Section title="Linked cores and readings">
           {n.readings.length ? (
-            <TableFrame>
-              <Table aria-label="Linked readings" size="small">
-                <TableHeader>
-                  <TableRow><HeadCell>Core</HeadCell><HeadCell>Characteristic</HeadCell><HeadCell>Limits</HeadCell><HeadCell>Value</HeadCell><HeadCell>Readings</HeadCell><HeadCell>Result</HeadCell></TableRow>
-                </TableHeader>
-                <TableBody>
-                  {n.readings.map((r) => (
-                    <TableRow key={r.id}>
-                      <TableCell>{r.serial ?? '—'}</TableCell>
-                      <TableCell>
-                        <strong>{r.characteristicCode}</strong> <span className={s.muted}>{r.name !== r.characteristicCode ? r.name : ''}</span>
-                      </TableCell>
-                      <TableCell className={s.muted}>{limitsText(r) || '—'}</TableCell>
-                      <TableCell className={s.num}>
-                        {r.value != null ? formatValue(r.value) : r.pass == null ? '—' : r.pass ? 'pass' : 'fail'}
-                        {r.value != null && r.values.length > 1 ? <Caption1 className={s.muted} block>mean of {r.values.length}</Caption1> : null}
-                      </TableCell>
-                      <TableCell>
-                        {r.values.length > 1 ? <ReadingValues r={r} /> : <span className={s.muted}>{r.note || ''}</span>}
-                      </TableCell>
-                      <TableCell>{r.conforming === false ? <span className={s.bad}>Out of tolerance</span> : r.conforming ? 'Within tolerance' : '—'}</TableCell>
-                    </TableRow>
-                  ))}
-                </TableBody>
-              </Table>
-            </TableFrame>
+            <LinkedReadingsTable readings={n.readings} />
           ) : (
             <Body1>Cores {n.cores.map((c) => c.serial).join(', ')}</Body1>
           )}
