@@ -77,6 +77,11 @@ export function withinLimits(v: number, lsl: number | null, usl: number | null):
   return (lsl == null || v >= lsl) && (usl == null || v <= usl);
 }
 
+/** Single values and diameters are judged reading by reading; fitted figures (probed, heights) by the fit. */
+export function judgesEachReading(layout: string): boolean {
+  return layout === 'single' || layout === 'two-point';
+}
+
 function probedPoints(c: EvalCharacteristic, values: number[]): Point[] {
   const n = c.angles ?? values.length;
   return pointsFromAngles(values.map((radius, i) => ({ angleDeg: ((i % n) * 360) / n, radius })));
@@ -212,13 +217,12 @@ export function evaluateSample(chars: EvalCharacteristic[], part: EvalPart, raw:
       }
       if (r.values.length < need) {
         // Partly entered: flag what is out already, judge when complete.
-        const outOf = c.layout === 'single' || c.layout === 'two-point' ? r.values.flatMap((v, i) => (withinLimits(v, c.lsl, c.usl) ? [] : [i])) : [];
+        const outOf = judgesEachReading(c.layout) ? r.values.flatMap((v, i) => (withinLimits(v, c.lsl, c.usl) ? [] : [i])) : [];
         out[c.code] = { value: null, conforming: outOf.length ? false : null, outOfLimits: outOf };
         continue;
       }
       const reduced = reduceOwn(c, r.values, part);
-      // Single values and diameters are judged reading by reading; fitted figures by the fit.
-      const perReading = c.layout === 'single' || c.layout === 'two-point';
+      const perReading = judgesEachReading(c.layout);
       const outOf = perReading ? r.values.flatMap((v, i) => (withinLimits(v, c.lsl, c.usl) ? [] : [i])) : [];
       const conforming = perReading ? outOf.length === 0 : withinLimits(reduced.value, c.lsl, c.usl);
       out[c.code] = { value: reduced.value, conforming, outOfLimits: outOf, details: reduced.details };

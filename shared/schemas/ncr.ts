@@ -252,7 +252,7 @@ export const linkedReadingSchema = z.object({
   unit: z.string().nullable(),
   lsl: z.number().nullable(),
   usl: z.number().nullable(),
-  /** Every reading is held to the limits (a single-layout characteristic such as burr height); otherwise the readings are radii or heights the value is computed from. */
+  /** Every reading is held to the limits (single values such as burr height, and diameters; see judgesEachReading); otherwise the readings are radii or heights the value is computed from. */
   eachReadingJudged: z.boolean(),
   value: z.number().nullable(),
   values: z.array(z.number()),

@@ -20,7 +20,7 @@ export class PgThrottlerStorage implements ThrottlerStorage {
 
   constructor(private readonly db: Db) {}
 
-  async increment(key: string, ttl: number, limit: number, blockDuration: number, throttlerName: string): Promise<{ totalHits: number; timeToExpire: number; isBlocked: boolean; timeToBlockExpire: number }> {
+  async increment(key: string, ttl: number, limit: number, _blockDuration: number, throttlerName: string): Promise<{ totalHits: number; timeToExpire: number; isBlocked: boolean; timeToBlockExpire: number }> {
     const id = `${throttlerName}:${key}`;
     const { rows } = await this.db.execute<Row>(sql`
       insert into rate_limit (key, hits, expires_at) values (${id}, 1, now() + ${ttl} * interval '1 millisecond')
@@ -37,7 +37,6 @@ export class PgThrottlerStorage implements ThrottlerStorage {
     const blocked = hits > limit;
     // A blocked key waits out its window. (Our throttlers leave blockDuration at its default, the
     // window's length, so a block ends when the window does.)
-    void blockDuration;
     return { totalHits: hits, timeToExpire: secondsLeft, isBlocked: blocked, timeToBlockExpire: blocked ? secondsLeft : 0 };
   }
 }

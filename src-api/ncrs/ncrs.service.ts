@@ -18,6 +18,7 @@ import { DefectCodesService } from './defect-codes.service';
 import { nextDocumentNumber } from './numbering';
 import { signatureHash, verifySigner } from './e-signature';
 import { toDisposition, toNcrPhoto, toNcrSummary, toSignature, toSupplierNcr, type NcrJoins } from './ncr-views';
+import { judgesEachReading } from '../../shared/compute/evaluate';
 
 const NO_SUPPLIER = '00000000-0000-0000-0000-000000000000';
 const INSPECTING = ['received', 'inspecting'];
@@ -145,7 +146,7 @@ export class NcrsService {
       signalId: n.signalId,
       lot: lotRow ? { id: lotRow.id, ref: lotRow.ref, status: lotRow.status, quantity: lotRow.quantity, supplierLotNumber: lotRow.supplierLotNumber, version: lotRow.version } : null,
       cores: cores.map((c) => ({ id: c.id, serial: c.serial })),
-      readings: readings.map(({ r: x, serial, c }) => ({ id: x.id, sampleId: x.sampleId, serial, characteristicCode: x.characteristicCode, name: c?.name ?? x.characteristicCode, unit: c?.unit ?? null, lsl: c?.lsl ?? null, usl: c?.usl ?? null, eachReadingJudged: c?.layout === 'single', value: x.value, values: x.values, pass: x.pass, conforming: x.conforming, note: x.note })),
+      readings: readings.map(({ r: x, serial, c }) => ({ id: x.id, sampleId: x.sampleId, serial, characteristicCode: x.characteristicCode, name: c?.name ?? x.characteristicCode, unit: c?.unit ?? null, lsl: c?.lsl ?? null, usl: c?.usl ?? null, eachReadingJudged: c ? judgesEachReading(c.layout) : false, value: x.value, values: x.values, pass: x.pass, conforming: x.conforming, note: x.note })),
       photos: photos.map(toNcrPhoto),
       dispositions,
       signatures: sigs.map(toSignature),

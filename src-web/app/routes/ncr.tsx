@@ -37,7 +37,6 @@ const useStyles = makeStyles({
   code: { fontFamily: tokens.fontFamilyMonospace, fontWeight: 700, border: `1px solid ${tokens.colorNeutralStroke1}`, borderRadius: '4px', padding: '1px 6px' },
   link: { color: tokens.colorBrandForeground1, fontWeight: 600 },
   num: { textAlign: 'right', fontVariantNumeric: 'tabular-nums' },
-  bad: { color: tokens.colorPaletteRedForeground1, fontWeight: 600 },
   muted: { color: tokens.colorNeutralForeground3 },
   hash: { fontFamily: tokens.fontFamilyMonospace, fontSize: tokens.fontSizeBase200, overflowWrap: 'anywhere' },
   sig: { borderLeft: `3px solid ${tokens.colorBrandStroke1}`, paddingLeft: '12px', margin: '0 0 10px' },

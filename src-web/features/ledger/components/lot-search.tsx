@@ -40,7 +40,6 @@ const useStyles = makeStyles({
 });
 
 const FILTERS = ['tab', 'supplierId', 'partId', 'status', 'receivedFrom', 'receivedTo'] as const;
-const when = formatWhen;
 const monthAgo = () => new Date(Date.now() - 30 * 86_400_000).toISOString().slice(0, 10);
 const today = () => new Date().toISOString().slice(0, 10);
 
@@ -119,7 +118,7 @@ export function LotSearch() {
                   <TableCell>{l.supplierLotNumber}{l.poNumber ? <Caption1 className={s.muted} title="Purchase order"> · {l.poNumber}</Caption1> : null}</TableCell>
                   <TableCell title={l.supplierName}>{l.supplierCode}</TableCell>
                   <TableCell>{l.partNumber} rev {l.partRevision}</TableCell>
-                  <TableCell className={s.num}>{when(l.receivedAt)}</TableCell>
+                  <TableCell className={s.num}>{formatWhen(l.receivedAt)}</TableCell>
                   <TableCell><LotStatusPill status={l.status} /></TableCell>
                 </TableRow>
               ))}

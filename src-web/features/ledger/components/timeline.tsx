@@ -98,7 +98,6 @@ const FILTERS: { value: Filter; label: string; kinds?: LedgerKind[] }[] = [
   { value: 'nonconformance', label: 'NCR & corrective action', kinds: ['ncr', 'disposition', 'signature', 'scar', 'scar-step'] },
 ];
 
-const day = formatDay;
 const clock = (iso: string) => formatClock(iso, true);
 const num = (v: number | null) => (v == null ? '—' : String(Number(v.toFixed(4))));
 
@@ -149,7 +148,7 @@ function Entry({ e, last, newDay }: { e: LedgerEvent; last: boolean; newDay: boo
   return (
     <li className={s.item} aria-label={`${LEDGER_KIND_LABELS[e.kind]}: ${e.title}`} data-kind={e.kind}>
       <div className={s.when}>
-        {newDay ? <span className={s.day}>{day(e.at)}</span> : null}
+        {newDay ? <span className={s.day}>{formatDay(e.at)}</span> : null}
         {clock(e.at)}
       </div>
       <div className={s.rail} aria-hidden>
@@ -223,7 +222,7 @@ export function Timeline({ events }: { events: LedgerEvent[] }) {
       </div>
       {shown.length ? (
         <ol className={s.list}>
-          {shown.map((e, i) => <Entry key={e.key} e={e} last={i === shown.length - 1} newDay={i === 0 || day(shown[i - 1].at) !== day(e.at)} />)}
+          {shown.map((e, i) => <Entry key={e.key} e={e} last={i === shown.length - 1} newDay={i === 0 || formatDay(shown[i - 1].at) !== formatDay(e.at)} />)}
         </ol>
       ) : (
         <Caption1 className={s.empty}>Nothing of this kind for this lot.</Caption1>
